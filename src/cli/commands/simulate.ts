@@ -1,0 +1,15 @@
+import type { Command } from '../context';
+import { formatHelp, parseArgs, type CommandSpec } from '../args';
+
+// Placeholder until the owning issue fills it in.
+const spec: CommandSpec = { name: 'simulate', summary: 'not built yet', usage: 'simulate', options: [], minPositional: 0, maxPositional: 99 };
+
+export const command: Command = {
+  spec,
+  async run(argv, ctx) {
+    const args = parseArgs(spec, argv);
+    if (args.flags.has('help')) { ctx.out(formatHelp(spec)); return 0; }
+    ctx.err("error: 'lacuna simulate' is not built yet\n");
+    return 1;
+  },
+};
