@@ -1,0 +1,6 @@
+/** Readers and writers: CIF 1.1 / mmCIF documents, reflection files (CIF, delimited text), gzip detection. */
+export { parseCifNumber, type CifNumber } from './cif-number';
+export {
+  parseCifDocument, findCifBlock, isMissingValue, cifValueNumber,
+  CifBlock, CifLoop, type CifDocument, type CifItem, type CifValue, type CifValueKind,
+} from './cif-document';
