@@ -4,3 +4,7 @@ export {
   parseCifDocument, findCifBlock, isMissingValue, cifValueNumber,
   CifBlock, CifLoop, type CifDocument, type CifItem, type CifValue, type CifValueKind,
 } from './cif-document';
+export { readReflections, detectReflectionFormat, type ReflectionFormat } from './reflection-reader';
+export type { ReadReflectionsOptions } from './read-options';
+export { isGzip } from './gzip';
+export { parseByteNumber } from './byte-number';

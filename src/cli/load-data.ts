@@ -1,0 +1,69 @@
+import { readFileSync, statSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { gunzipSync } from 'node:zlib';
+import { InputError, type ReflectionTable } from '../core';
+import { isGzip, readReflections } from '../io';
+import { parseCellText, type UnitCell } from '../lattice';
+import type { OptionSpec, ParsedArgs } from './args';
+import type { CliContext } from './context';
+
+/**
+ * Shared by every command that reads reflection data: file -> bytes (gunzipped
+ * when the content is gzip, whatever the name) -> ReflectionTable, with the
+ * --cell, --columns and --block options applied. Throws InputError, which the
+ * dispatcher turns into `error: ...` and exit code 2.
+ */
+
+/** The options every data-reading command declares (spread into its CommandSpec.options). */
+export const DATA_OPTIONS: readonly OptionSpec[] = [
+  { name: 'cell', value: true, placeholder: 'a,b,c,al,be,ga', help: 'unit cell (angstrom, degrees); replaces the one in the file' },
+  { name: 'columns', value: true, placeholder: 'h,k,l,i,sigi', help: 'column names of a text file in order (CIF: five tags h,k,l,value,sigma)' },
+  { name: 'block', value: true, placeholder: 'NAME', help: 'CIF data block to read (default: the first with reflections)' },
+];
+
+/** Read a file's bytes, gunzipping gzip content. `path` is relative to ctx.cwd. */
+export function readInputBytes(path: string, ctx: CliContext): Uint8Array {
+  const full = resolve(ctx.cwd, path);
+  let raw: Buffer;
+  try {
+    if (statSync(full).isDirectory()) throw new InputError('is a directory, not a file', { file: path });
+    raw = readFileSync(full);
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    const code = (e as NodeJS.ErrnoException).code;
+    const why = code === 'ENOENT' ? 'no such file' : code === 'EACCES' ? 'permission denied' : (e as Error).message;
+    throw new InputError(`cannot read the file: ${why}`, { file: path });
+  }
+  const bytes = new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength);
+  if (!isGzip(bytes)) return bytes;
+  try {
+    const out = gunzipSync(bytes);
+    return new Uint8Array(out.buffer, out.byteOffset, out.byteLength);
+  } catch (e) {
+    throw new InputError(`the file looks gzip-compressed but does not decompress (${(e as Error).message})`, { file: path });
+  }
+}
+
+/** --cell as a checked UnitCell, or undefined when not given. */
+export function cellOption(args: ParsedArgs): UnitCell | undefined {
+  const text = args.values.get('cell');
+  if (text === undefined) return undefined;
+  const r = parseCellText(text, '--cell');
+  if (!r.ok) throw r.error;
+  return r.value;
+}
+
+/** Read a reflection file with the command's --cell/--columns/--block options. */
+export function loadReflections(path: string, args: ParsedArgs, ctx: CliContext): ReflectionTable {
+  const cell = cellOption(args);
+  const columnsText = args.values.get('columns');
+  const columns = columnsText?.split(/[,\s]+/).filter((s) => s !== '');
+  const r = readReflections(readInputBytes(path, ctx), {
+    source: path,
+    block: args.values.get('block'),
+    columns,
+    cell: cell?.params(),
+  });
+  if (!r.ok) throw r.error;
+  return r.value;
+}

@@ -1,0 +1,105 @@
+import { NUMBER_BAD, NUMBER_OK, numberStatus, parseByteNumber } from './byte-number';
+import { ROLE_H, ROLE_K, ROLE_L, ROLE_VALUE } from './reflection-columns';
+import { ReflectionTableBuilder, recordRejection, type ReflectionMeta } from '../core';
+
+/**
+ * Where readers put rows: checks each row, converts amplitudes, and either
+ * appends it to the table or records why not, so that accepted + rejected
+ * always equals the rows in the file.
+ */
+
+/** Rejection reasons (keys of meta.rejectedByReason). */
+export const REJECT_MISSING = 'missing value (? or . or empty)';
+export const REJECT_NON_NUMERIC = 'non-numeric value';
+export const REJECT_NON_FINITE = 'NaN or infinite value';
+export const REJECT_NON_INTEGER = 'non-integer index';
+export const REJECT_RANGE = 'index out of range (|h|, |k| or |l| > 32767)';
+export const REJECT_000 = 'index 0 0 0';
+export const REJECT_SIGMA = 'sigma <= 0';
+export const REJECT_NEGATIVE_F = 'negative amplitude F';
+export const REJECT_TOO_FEW = 'too few columns';
+export const REJECT_TOO_MANY = 'more columns than the header names';
+
+export const AMPLITUDE_WARNING =
+  'the file gives amplitudes F: converted to intensities with I = F^2, sigma(I) = 2|F| sigma(F) (common practice)';
+
+/** Per-row field state collected by a reader before calling `add`. */
+export const FIELD_OK = 0;
+export const FIELD_MISSING = 1;
+export const FIELD_BAD = 2;
+export const FIELD_NONFINITE = 3;
+
+const MAX_INDEX = 32767;
+
+export class RowSink {
+  readonly builder: ReflectionTableBuilder;
+  rows = 0;
+  constructor(readonly meta: ReflectionMeta, readonly amplitude: boolean, initialCapacity?: number) {
+    this.builder = new ReflectionTableBuilder(initialCapacity);
+  }
+
+  // the row being collected
+  private h = 0; private k = 0; private l = 0; private v = 0; private s = 0;
+  private status = FIELD_OK;
+
+  /**
+   * Parse bytes[start, end) as the field with this role (ROLE_* != ROLE_SKIP).
+   * An empty field, `?` and `.` are missing values.
+   */
+  field(role: number, b: Uint8Array, start: number, end: number): void {
+    if (start === end || (end - start === 1 && (b[start] === 63 || b[start] === 46))) {
+      if (this.status < FIELD_MISSING) this.status = FIELD_MISSING;
+      return;
+    }
+    const x = parseByteNumber(b, start, end);
+    if (numberStatus !== NUMBER_OK) {
+      const st = numberStatus === NUMBER_BAD ? FIELD_BAD : FIELD_NONFINITE;
+      if (this.status < st) this.status = st;
+    } else if (role === ROLE_H) this.h = x;
+    else if (role === ROLE_K) this.k = x;
+    else if (role === ROLE_L) this.l = x;
+    else if (role === ROLE_VALUE) this.v = x;
+    else this.s = x;
+  }
+
+  /** Mark the current row as having a non-numeric field. */
+  badField(): void {
+    if (this.status < FIELD_BAD) this.status = FIELD_BAD;
+  }
+
+  /** Finish the row collected with field(): accept or reject it. */
+  endRow(line: number): void {
+    this.add(this.h, this.k, this.l, this.v, this.s, this.status, line);
+    this.status = FIELD_OK;
+  }
+
+  reject(line: number, reason: string): void {
+    this.rows++;
+    recordRejection(this.meta, line, reason);
+  }
+
+  /** `status` is the worst FIELD_* seen among the five fields of the row. */
+  add(h: number, k: number, l: number, v: number, s: number, status: number, line: number): void {
+    if (status !== FIELD_OK) {
+      this.reject(line, status === FIELD_MISSING ? REJECT_MISSING : status === FIELD_BAD ? REJECT_NON_NUMERIC : REJECT_NON_FINITE);
+      return;
+    }
+    if (h !== Math.floor(h) || k !== Math.floor(k) || l !== Math.floor(l)) { this.reject(line, REJECT_NON_INTEGER); return; }
+    if (h > MAX_INDEX || h < -MAX_INDEX || k > MAX_INDEX || k < -MAX_INDEX || l > MAX_INDEX || l < -MAX_INDEX) { this.reject(line, REJECT_RANGE); return; }
+    if (h === 0 && k === 0 && l === 0) { this.reject(line, REJECT_000); return; }
+    if (this.amplitude) {
+      if (v < 0) { this.reject(line, REJECT_NEGATIVE_F); return; }
+      if (!(s > 0)) { this.reject(line, REJECT_SIGMA); return; }
+      // I = F^2, sigma(I) = 2 F sigma(F) (common practice); at F = 0 that vanishes, so sigma(F)^2 is used there
+      const sI = v > 0 ? 2 * v * s : s * s;
+      v = v * v;
+      s = sI;
+    }
+    const v32 = Math.fround(v);
+    const s32 = Math.fround(s);
+    if (!Number.isFinite(v32) || !Number.isFinite(s32)) { this.reject(line, REJECT_NON_FINITE); return; }
+    if (!(s32 > 0)) { this.reject(line, REJECT_SIGMA); return; }
+    this.rows++;
+    this.builder.push(h, k, l, v32, s32);
+  }
+}
