@@ -8,3 +8,4 @@ export { readReflections, detectReflectionFormat, type ReflectionFormat } from '
 export type { ReadReflectionsOptions } from './read-options';
 export { isGzip } from './gzip';
 export { parseByteNumber } from './byte-number';
+export { summarizeReflections, countUniqueHkl, type ReflectionSummary } from './reflection-summary';

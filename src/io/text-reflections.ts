@@ -85,7 +85,10 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
       if (numeric && !opts.columns)
         return fail('no header row naming the columns', { file, line, column: 1 }, 'Add a first line such as "h k l I sigI", or give --columns h,k,l,i,sigi.');
       const plan = planTextColumns(opts.columns ?? names);
-      if (typeof plan === 'string') return fail(plan, opts.columns ? { file: '--columns' } : { file, line, column: 1 });
+      if (typeof plan === 'string')
+        return opts.columns
+          ? fail(plan, { file: '--columns' })
+          : fail(plan, { file, line, column: 1 }, 'The first line must name the columns (e.g. "h k l I sigI"), or give --columns h,k,l,i,sigi.');
       roles = plan.roles;
       needed = roles.length;
       while (needed > 0 && roles[needed - 1] === 0) needed--;

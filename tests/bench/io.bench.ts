@@ -1,0 +1,78 @@
+// Reading benchmark: a generated 1,000,000-reflection mmCIF file (about 23 MB,
+// written to a temp folder, never committed) read into the ReflectionTable, and
+// `lacuna inspect` on it as a whole process.
+import { execFileSync, spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { gzipSync } from 'node:zlib';
+import { readReflections } from '../../src/io';
+import { median, reportBench, timeRuns } from './bench-util';
+
+const ROWS = 1_000_000;
+const root = process.env.LACUNA_ROOT ?? process.cwd();
+
+/** Deterministic pseudo-random data (xorshift), so every run reads the same file. */
+function makeMmcif(rows: number): Uint8Array {
+  let x = 2463534242;
+  const rnd = () => { x ^= x << 13; x >>>= 0; x ^= x >>> 17; x ^= x << 5; x >>>= 0; return x / 4294967296; };
+  const parts: string[] = [
+    'data_bench_generated',
+    '_cell.length_a 61.20', '_cell.length_b 71.35', '_cell.length_c 82.10',
+    '_cell.angle_alpha 90.00', '_cell.angle_beta 97.20', '_cell.angle_gamma 90.00',
+    'loop_', '_refln.index_h', '_refln.index_k', '_refln.index_l', '_refln.intensity_meas', '_refln.intensity_sigma',
+  ];
+  const lines: string[] = [];
+  for (let j = 0; j < rows; j++) {
+    const h = Math.floor(rnd() * 81) - 40, k = Math.floor(rnd() * 81) - 40, l = Math.floor(rnd() * 61) - 30 || 1;
+    const i = rnd() * 9000 - 500;
+    lines.push(`${h} ${k} ${l} ${i.toFixed(2)} ${(5 + rnd() * 60).toFixed(1)}`);
+  }
+  return new TextEncoder().encode(parts.join('\n') + '\n' + lines.join('\n') + '\n');
+}
+
+const dir = join(tmpdir(), 'lacuna-bench-data');
+mkdirSync(dir, { recursive: true });
+const file = join(dir, 'refl-1m.cif');
+const bytes = makeMmcif(ROWS);
+writeFileSync(file, bytes);
+writeFileSync(file + '.gz', gzipSync(bytes, { level: 6 }));
+const mb = bytes.length / 1e6;
+
+let n = 0;
+let held = 0;
+const times = timeRuns(() => {
+  const r = readReflections(bytes, { source: file });
+  if (!r.ok) throw r.error;
+  const t = r.value;
+  n = t.n;
+  held = t.h.buffer.byteLength + t.k.buffer.byteLength + t.l.buffer.byteLength + t.i.buffer.byteLength + t.sigma.buffer.byteLength;
+}, 7, 2);
+if (n !== ROWS) throw new Error(`read ${n} reflections, expected ${ROWS}`);
+const m = median(times);
+reportBench('io', { name: `read 1M-row mmCIF (${mb.toFixed(1)} MB) to table`, median: m, unit: 's', runs: times.length, target: '<= 0.2 s', note: `${(mb / m).toFixed(0)} MB/s` });
+reportBench('io', { name: 'bytes held per reflection after reading', median: held / n, unit: 'B', runs: 1, target: '<= 20 B' });
+
+// the real data set, small-file overhead
+const real = resolve(root, '../shared/realdata/cod-2014121.cif');
+if (existsSync(real)) {
+  const rb = new Uint8Array(readFileSync(real));
+  const t2 = timeRuns(() => { const r = readReflections(rb, { source: real }); if (!r.ok) throw r.error; }, 21, 5);
+  reportBench('io', { name: 'read cod-2014121.cif (3651 rows)', median: median(t2) * 1000, unit: 'ms', runs: t2.length });
+}
+
+// `lacuna inspect` as a whole process (node start, bundle load, read, summary)
+const bundle = resolve(root, 'dist/cli/lacuna.js');
+if (!existsSync(bundle)) execFileSync('npx', ['vite', 'build', '--mode', 'cli'], { cwd: root, stdio: 'ignore' });
+const bin = resolve(root, 'src/cli/bin.mjs');
+for (const [label, path, target] of [['', file, '< 0.5 s'], [' (gzip)', file + '.gz', '']] as const) {
+  const wall: number[] = [];
+  for (let j = 0; j < 6; j++) {
+    const t0 = performance.now();
+    const r = spawnSync(process.execPath, [bin, 'inspect', path, '--json'], { encoding: 'utf8' });
+    const dt = (performance.now() - t0) / 1000;
+    if (r.status !== 0) throw new Error(`lacuna inspect failed: ${r.stderr}`);
+    if (j > 0) wall.push(dt);
+  }
+  reportBench('io', { name: `lacuna inspect 1M-row mmCIF${label}, whole process`, median: median(wall), unit: 's', runs: wall.length, target });
+}
