@@ -6,3 +6,7 @@ export {
   transformHkl, transformCell, transformMetric, cellFromMetric,
 } from './change-of-basis';
 export { type NiggliResult, NIGGLI_RELATIVE_EPSILON, niggliReduce, niggliReduceMetric } from './niggli';
+export {
+  type BravaisType, type BravaisCandidate, type BravaisSearch, type BravaisOptions, type MonoclinicRule,
+  BRAVAIS_TYPES, HOLOHEDRY_ORDER, DEFAULT_LATTICE_TOLERANCE_DEG, findBravaisCandidates,
+} from './bravais';
