@@ -232,7 +232,8 @@ function orthorhombic(g: ArrayLike<number>, twofolds: Mat[]): Conventional | und
   let axes = twofolds.map(axisOf);
   const cen = centringOf(rightHanded(axes[0], axes[1], axes[2]));
   if (!cen) return undefined;
-  const type = ({ P: 'oP', I: 'oI', F: 'oF', A: 'oC', B: 'oC', C: 'oC' } as const)[cen as 'P'];
+  const byCentring: Record<string, BravaisType> = { P: 'oP', I: 'oI', F: 'oF', A: 'oC', B: 'oC', C: 'oC' };
+  const type = byCentring[cen];
   if (!type) return undefined;
   if (type === 'oC') {
     // the centred face becomes ab; then a <= b (common practice)
