@@ -10,3 +10,4 @@ export {
   type BravaisType, type BravaisCandidate, type BravaisSearch, type BravaisOptions, type MonoclinicRule,
   BRAVAIS_TYPES, HOLOHEDRY_ORDER, DEFAULT_LATTICE_TOLERANCE_DEG, findBravaisCandidates,
 } from './bravais';
+export { type ReindexOptions, NON_INTEGRAL_REASON, reindexTable } from './reindex';
