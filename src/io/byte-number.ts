@@ -37,8 +37,14 @@ function slowParse(bytes: Uint8Array, start: number, end: number): number {
   return v;
 }
 
-/** Parse bytes[start, end) as a decimal number; check `numberStatus` after the call. */
-export function parseByteNumber(bytes: Uint8Array, start: number, end: number): number {
+/** Where the token read by the last scanByteNumber call ends (first blank byte or `limit`). */
+export let numberEnd = 0;
+
+/**
+ * Parse the number that starts at bytes[start] and runs to the next blank
+ * (space, tab, CR, LF) or `limit`, in one pass; sets `numberStatus` and `numberEnd`.
+ */
+export function scanByteNumber(bytes: Uint8Array, start: number, limit: number): number {
   let j = start;
   let neg = false;
   let c = bytes[j];
@@ -46,21 +52,30 @@ export function parseByteNumber(bytes: Uint8Array, start: number, end: number): 
   let mant = 0;
   let digits = 0;
   let frac = 0;
-  let any = false;
-  while (j < end) {
+  while (j < limit) {
     c = bytes[j] - 48;
     if (c < 0 || c > 9) break;
-    mant = mant * 10 + c; digits++; any = true; j++;
+    mant = mant * 10 + c; digits++; j++;
   }
-  if (j < end && bytes[j] === 46 /* . */) {
+  if (j < limit && bytes[j] === 46 /* . */) {
     j++;
-    while (j < end) {
+    while (j < limit) {
       c = bytes[j] - 48;
       if (c < 0 || c > 9) break;
-      mant = mant * 10 + c; digits++; frac++; any = true; j++;
+      mant = mant * 10 + c; digits++; frac++; j++;
     }
   }
-  if (!any) return slowParse(bytes, start, end);
+  // the common case: plain decimal followed by a blank
+  if (digits > 0 && digits <= 15 && (j >= limit || bytes[j] <= 32)) {
+    numberEnd = j;
+    numberStatus = NUMBER_OK;
+    const v = frac === 0 ? mant : mant / POW10[frac];
+    return neg ? -v : v;
+  }
+  let end = j;
+  while (end < limit && bytes[end] > 32) end++;
+  numberEnd = end;
+  if (digits === 0) return slowParse(bytes, start, end);
   let exp = 0;
   if (j < end && (bytes[j] | 32) === 101 /* e */) {
     j++;
@@ -92,4 +107,11 @@ export function parseByteNumber(bytes: Uint8Array, start: number, end: number): 
   else return slowParse(bytes, start, j);
   numberStatus = Number.isFinite(v) ? NUMBER_OK : NUMBER_NONFINITE;
   return neg ? -v : v;
+}
+
+/** Parse exactly bytes[start, end) as a decimal number; check `numberStatus` after the call. */
+export function parseByteNumber(bytes: Uint8Array, start: number, end: number): number {
+  const v = scanByteNumber(bytes, start, end);
+  if (numberEnd !== end) { numberStatus = NUMBER_BAD; return NaN; }
+  return v;
 }

@@ -3,6 +3,7 @@ import { makeCell } from '../lattice';
 import { parseCifNumber } from './cif-number';
 import { isReflectionLoop, normaliseTag, planCifColumns } from './reflection-columns';
 import { AMPLITUDE_WARNING, RowSink } from './row-sink';
+import { numberEnd, scanByteNumber } from './byte-number';
 import type { ReadReflectionsOptions } from './read-options';
 
 /**
@@ -154,25 +155,33 @@ function readLoopRows(sc: ByteCifScanner, w: number, roles: Int8Array, sink: Row
       else break;
     }
     if (pos >= n || c === 95 /* _ tag */) break;
-    let start: number, end: number, quoted = false, tokLine = line;
+    const tokLine = line;
+    const role = roles[col];
     if (c === 39 || c === 34 || (c === 59 && pos === lineStart)) {
       sc.pos = pos; sc.line = line; sc.lineStart = lineStart;
       if (sc.next() === T_ERROR) return sc.error;
-      start = sc.start; end = sc.end; quoted = true; tokLine = sc.tline;
+      if (col === 0) rowLine = sc.tline;
+      lastLine = sc.tline; lastCol = sc.tcol;
       pos = sc.pos; line = sc.line; lineStart = sc.lineStart;
-    } else {
-      start = pos;
-      while (pos < n && b[pos] > 32) pos++;
-      end = pos;
-      if ((c | 32) >= 100 && wordKind(b, start, end) !== T_VALUE) { pos = start; break; }
-    }
-    if (col === 0) rowLine = tokLine;
-    lastLine = tokLine; lastCol = start - lineStart + 1;
-    const role = roles[col];
-    if (role !== 0) {
       // a quoted '?' or '.' is text, not a missing value
-      if (quoted && end - start === 1 && (b[start] === 63 || b[start] === 46)) sink.badField();
-      else sink.field(role, b, start, end);
+      if (role !== 0) {
+        if (sc.end - sc.start === 1 && (b[sc.start] === 63 || b[sc.start] === 46)) sink.badField();
+        else sink.field(role, b, sc.start, sc.end);
+      }
+    } else {
+      if (col === 0) rowLine = tokLine;
+      lastLine = tokLine; lastCol = pos - lineStart + 1;
+      if (role !== 0 && c >= 43 && c <= 57 && !(c === 46 && (pos + 1 >= n || b[pos + 1] <= 32))) {
+        // numbers: parse while scanning, one pass (+ , - . / and digits start here)
+        const x = scanByteNumber(b, pos, n);
+        pos = numberEnd;
+        sink.numberField(role, x);
+      } else {
+        const start = pos;
+        while (pos < n && b[pos] > 32) pos++;
+        if ((c | 32) >= 100 && wordKind(b, start, pos) !== T_VALUE) { pos = start; break; }
+        if (role !== 0) sink.field(role, b, start, pos);
+      }
     }
     if (++col === w) {
       sink.endRow(rowLine);

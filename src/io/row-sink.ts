@@ -1,5 +1,5 @@
 import { NUMBER_BAD, NUMBER_OK, numberStatus, parseByteNumber } from './byte-number';
-import { ROLE_H, ROLE_K, ROLE_L, ROLE_VALUE } from './reflection-columns';
+import { ROLE_H, ROLE_K, ROLE_L, ROLE_SIGMA, ROLE_VALUE } from './reflection-columns';
 import { ReflectionTableBuilder, recordRejection, type ReflectionMeta } from '../core';
 
 /**
@@ -38,8 +38,8 @@ export class RowSink {
     this.builder = new ReflectionTableBuilder(initialCapacity);
   }
 
-  // the row being collected
-  private h = 0; private k = 0; private l = 0; private v = 0; private s = 0;
+  // the row being collected, indexed by ROLE_*
+  private readonly row = new Float64Array(6);
   private status = FIELD_OK;
 
   /**
@@ -47,19 +47,21 @@ export class RowSink {
    * An empty field, `?` and `.` are missing values.
    */
   field(role: number, b: Uint8Array, start: number, end: number): void {
-    if (start === end || (end - start === 1 && (b[start] === 63 || b[start] === 46))) {
-      if (this.status < FIELD_MISSING) this.status = FIELD_MISSING;
-      return;
-    }
-    const x = parseByteNumber(b, start, end);
+    if (start === end || (end - start === 1 && (b[start] === 63 || b[start] === 46))) this.missingField();
+    else this.numberField(role, parseByteNumber(b, start, end));
+  }
+
+  /** Store x, just returned by a byte-number parser (numberStatus tells whether it is one). */
+  numberField(role: number, x: number): void {
     if (numberStatus !== NUMBER_OK) {
       const st = numberStatus === NUMBER_BAD ? FIELD_BAD : FIELD_NONFINITE;
       if (this.status < st) this.status = st;
-    } else if (role === ROLE_H) this.h = x;
-    else if (role === ROLE_K) this.k = x;
-    else if (role === ROLE_L) this.l = x;
-    else if (role === ROLE_VALUE) this.v = x;
-    else this.s = x;
+    } else this.row[role] = x;
+  }
+
+  /** Mark the current row as having a missing value. */
+  missingField(): void {
+    if (this.status < FIELD_MISSING) this.status = FIELD_MISSING;
   }
 
   /** Mark the current row as having a non-numeric field. */
@@ -69,7 +71,8 @@ export class RowSink {
 
   /** Finish the row collected with field(): accept or reject it. */
   endRow(line: number): void {
-    this.add(this.h, this.k, this.l, this.v, this.s, this.status, line);
+    const r = this.row;
+    this.add(r[ROLE_H], r[ROLE_K], r[ROLE_L], r[ROLE_VALUE], r[ROLE_SIGMA], this.status, line);
     this.status = FIELD_OK;
   }
 
