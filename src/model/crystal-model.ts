@@ -1,16 +1,11 @@
-import type { CellParams } from '../core';
+import type { UnitCell } from '../lattice';
+import { DEN, type SymOp } from '../symmetry';
 
-/** Translations of symmetry operations are integers over this denominator (the project-wide 24). */
-export const MODEL_TDEN = 24;
+/** Translations of symmetry operations are integers over this denominator (the symmetry layer's DEN = 24). */
+export const MODEL_TDEN = DEN;
 
-/**
- * One symmetry operation as the model layer needs it: x' = R x + t / 24 with R row-major.
- * Structurally the symmetry layer's SymOp.
- */
-export interface ModelOp {
-  readonly r: ArrayLike<number>;
-  readonly t: ArrayLike<number>;
-}
+/** One symmetry operation: x' = R x + t / DEN with R row-major (the symmetry layer's SymOp). */
+export type ModelOp = SymOp;
 
 /**
  * Atom sites as columns (one entry per site of the asymmetric unit).
@@ -38,7 +33,7 @@ export interface AtomSites {
 /** A trial structure: cell, every symmetry operation (identity first, centring included), atoms. */
 export interface CrystalModel {
   readonly source: string;
-  readonly cell: CellParams;
+  readonly cell: UnitCell;
   readonly ops: readonly ModelOp[];
   /** Space-group name as the file gave it (H-M or Hall), if any; for messages only. */
   readonly spaceGroupName?: string;

@@ -5,7 +5,12 @@
 export * from './crystal-model';
 export { findFormFactor, formFactorAt, formFactorAtStol2, formFactorElements, parseTypeSymbol } from './form-factors';
 export type { FormFactorCoefficients, TypeSymbol } from './form-factors';
-export { reciprocalGeometry, stol2Of } from './reciprocal-geometry';
-export type { ReciprocalGeometry } from './reciprocal-geometry';
 export { cosSinTurns } from './trig-turns';
 export * from './structure-factors';
+export { parseModelCif } from './model-cif';
+export type { ModelReadOptions } from './model-cif';
+export * from './compare-data';
+export { simulateData, isAbsentByOps } from './simulate-data';
+export { hemisphereIndices, MAX_GENERATED_REFLECTIONS } from './hemisphere';
+export type { SimulationOptions, SimulationResult } from './simulate-data';
+export { SeededRandom } from './seeded-random';

@@ -1,6 +1,6 @@
 import { MODEL_TDEN, type CrystalModel } from './crystal-model';
 import { findFormFactor, type FormFactorCoefficients } from './form-factors';
-import { reciprocalGeometry, stol2Of } from './reciprocal-geometry';
+import type { UnitCell } from '../lattice';
 import { COS_TABLE, SIN_TABLE, TURN_TABLE_SIZE, TURN_TABLE_STEP } from './trig-turns';
 
 /**
@@ -39,14 +39,13 @@ export interface PreparedModel {
   /** Index into `types` per atom. */
   readonly typeOf: Int32Array;
   readonly types: readonly FormFactorCoefficients[];
+  /** Reciprocal metric G* (row-major 3x3, 1/angstrom^2): (sin(theta)/lambda)^2 = h G* h^T / 4. */
   readonly gstar: Float64Array;
 }
 
 /** Order of the site symmetry of fractional position (x, y, z): operations mapping it onto itself modulo lattice translations. */
 export function siteSymmetryOrder(model: Pick<CrystalModel, 'cell' | 'ops'>, x: number, y: number, z: number, tolerance = SPECIAL_POSITION_TOLERANCE): number {
-  const { a, b, c, alpha, beta, gamma } = model.cell;
-  const rad = Math.PI / 180;
-  const ca = Math.cos(alpha * rad), cb = Math.cos(beta * rad), cg = Math.cos(gamma * rad);
+  const g = model.cell.metric;
   let order = 0;
   for (const op of model.ops) {
     const r = op.r, t = op.t;
@@ -54,7 +53,7 @@ export function siteSymmetryOrder(model: Pick<CrystalModel, 'cell' | 'ops'>, x: 
     let dy = r[3] * x + r[4] * y + r[5] * z + t[1] / MODEL_TDEN - y;
     let dz = r[6] * x + r[7] * y + r[8] * z + t[2] / MODEL_TDEN - z;
     dx -= Math.round(dx); dy -= Math.round(dy); dz -= Math.round(dz);
-    const d2 = a * a * dx * dx + b * b * dy * dy + c * c * dz * dz + 2 * (a * b * cg * dx * dy + a * c * cb * dx * dz + b * c * ca * dy * dz);
+    const d2 = g[0] * dx * dx + g[4] * dy * dy + g[8] * dz * dz + 2 * (g[1] * dx * dy + g[2] * dx * dz + g[5] * dy * dz);
     if (d2 <= tolerance * tolerance) order++;
   }
   return Math.max(order, 1);
@@ -71,7 +70,6 @@ export function prepareModel(model: CrystalModel): PreparedModel {
     for (let m = 0; m < 9; m++) rot[9 * o + m] = op.r[m];
     for (let m = 0; m < 3; m++) trans[3 * o + m] = op.t[m] / MODEL_TDEN;
   });
-  const geo = reciprocalGeometry(model.cell);
   const types: FormFactorCoefficients[] = [];
   const typeIndex = new Map<string, number>();
   const typeOf = new Int32Array(n);
@@ -80,7 +78,8 @@ export function prepareModel(model: CrystalModel): PreparedModel {
   const isoExponent = new Float64Array(n);
   const anisoExponent = new Float64Array(6 * n);
   const twoPi2 = 2 * Math.PI * Math.PI;
-  const as = [geo.astar, geo.bstar, geo.cstar];
+  const rc = model.cell.reciprocal;
+  const as = [rc.a, rc.b, rc.c];
   for (let j = 0; j < n; j++) {
     const el = at.element[j];
     let t = typeIndex.get(el);
@@ -107,7 +106,7 @@ export function prepareModel(model: CrystalModel): PreparedModel {
     nAtoms: n, nOps, rot, trans,
     x: at.x, y: at.y, z: at.z,
     weight, siteOrder, isoExponent, hasAniso: at.hasAniso, anisoExponent, typeOf, types,
-    gstar: geo.gstar,
+    gstar: model.cell.reciprocalMetric,
   };
 }
 
@@ -151,7 +150,7 @@ export function computeStructureFactors(
       hr[3 * o + 2] = hh * rot[r + 2] + kk * rot[r + 5] + ll * rot[r + 8];
       shift[o] = hh * trans[3 * o] + kk * trans[3 * o + 1] + ll * trans[3 * o + 2];
     }
-    const s2 = stol2Of(gstar, hh, kk, ll);
+    const s2 = 0.25 * (hh * hh * gstar[0] + kk * kk * gstar[4] + ll * ll * gstar[8] + 2 * (hh * kk * gstar[1] + hh * ll * gstar[2] + kk * ll * gstar[5]));
     for (let t = 0; t < types.length; t++) {
       const c = types[t];
       f[t] = c.a[0] * Math.exp(-c.b[0] * s2) + c.a[1] * Math.exp(-c.b[1] * s2) + c.a[2] * Math.exp(-c.b[2] * s2) + c.a[3] * Math.exp(-c.b[3] * s2) + c.c;

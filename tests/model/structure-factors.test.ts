@@ -2,13 +2,15 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { REPO_ROOT } from '../helpers/paths';
+import { makeCell } from '../../src/lattice';
+import type { CellParams } from '../../src/core';
 import {
   atomSitesFromList, computeStructureFactors, prepareModel, findFormFactor, formFactorAt,
   type CrystalModel, type ModelOp,
 } from '../../src/model';
 
 interface FixtureModel {
-  name: string; hm: string; cell: CrystalModel['cell'];
+  name: string; hm: string; cell: CellParams;
   ops_int: [number[], number[]][];
   atoms: { label: string; element: string; x: number; y: number; z: number; occupancy: number; uiso: number; aniso: number[] | null }[];
   crystallographic_occupancy: number[];
@@ -23,9 +25,15 @@ function toOps(list: [number[], number[]][]): ModelOp[] {
   return list.map(([r, t]) => ({ r: Int32Array.from(r), t: Int32Array.from(t) }));
 }
 
+function cellOf(p: CellParams) {
+  const r = makeCell(p);
+  if (!r.ok) throw r.error;
+  return r.value;
+}
+
 function modelOf(m: FixtureModel): CrystalModel {
   return {
-    source: m.name, cell: m.cell, ops: toOps(m.ops_int), warnings: [],
+    source: m.name, cell: cellOf(m.cell), ops: toOps(m.ops_int), warnings: [],
     atoms: atomSitesFromList(m.atoms.map((a) => ({ ...a, aniso: a.aniso ?? undefined }))),
   };
 }

@@ -1,0 +1,166 @@
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { REPO_ROOT } from '../helpers/paths';
+import { computeStructureFactors, parseModelCif, prepareModel } from '../../src/model';
+
+const ref = (name: string) => readFileSync(resolve(REPO_ROOT, 'tests/reference', name), 'utf8');
+// Fixture from tests/reference/model-sf.py (gemmi 0.5.7 StructureFactorCalculatorX).
+const fixture = JSON.parse(ref('model-sf.json')) as { models: { name: string; hm: string; reflections: number[][]; atoms: unknown[] }[] };
+
+describe('model CIF reader on files written by gemmi (make_cif_block)', () => {
+  for (const m of fixture.models) {
+    it(`${m.name}: symmetry from the H-M name, aniso loop; F agrees with gemmi to 1e-4`, () => {
+      const r = parseModelCif(ref(`model-${m.name}.cif`), `model-${m.name}.cif`);
+      if (!r.ok) throw r.error;
+      const model = r.value;
+      expect(model.atoms.n).toBe(m.atoms.length);
+      const pm = prepareModel(model);
+      const n = m.reflections.length;
+      const re = new Float64Array(n), im = new Float64Array(n);
+      computeStructureFactors(pm, m.reflections.map((x) => x[0]), m.reflections.map((x) => x[1]), m.reflections.map((x) => x[2]), re, im);
+      const fmax = Math.max(...m.reflections.map((x) => x[5]));
+      const bad = m.reflections.filter((x, j) => !(Math.hypot(re[j] - x[3], im[j] - x[4]) <= (x[5] > 1e-3 * fmax ? 1e-4 * x[5] : 1e-7 * fmax)));
+      // gemmi writes U_iso of 1/3 to 9-10 digits and 1/3 coordinates as 0.333333333; 1e-4 absorbs that
+      expect(bad.slice(0, 5)).toEqual([]);
+    });
+  }
+});
+
+const BASE = `data_test
+_cell_length_a 5.0(1)
+_cell_length_b 6.0
+_cell_length_c 7.0
+_cell_angle_alpha 90
+_cell_angle_beta 100.0(2)
+_cell_angle_gamma 90
+`;
+
+function read(text: string) {
+  return parseModelCif(text, 'test.cif');
+}
+
+describe('model CIF reader: values, symmetry sources, errors', () => {
+  it('reads s.u. in parentheses, charges, B_iso, occupancy and explicit operations', () => {
+    const r = read(BASE + `loop_
+_symmetry_equiv_pos_as_xyz
+x,y,z
+-x,-y,-z
+loop_
+_atom_site_label
+_atom_site_type_symbol
+_atom_site_fract_x
+_atom_site_fract_y
+_atom_site_fract_z
+_atom_site_B_iso_or_equiv
+_atom_site_occupancy
+Fe1 Fe3+ 0.1234(5) 0.25 0.5(2) 1.5791(3) 0.5
+O1 O2- 0.3 0.4 0.1 ? ?
+`);
+    if (!r.ok) throw r.error;
+    const m = r.value;
+    expect(m.cell.a).toBe(5);
+    expect(m.ops.length).toBe(2);
+    expect(m.atoms.element).toEqual(['Fe', 'O']);
+    expect(Array.from(m.atoms.charge)).toEqual([3, -2]);
+    expect(m.atoms.x[0]).toBe(0.1234);
+    expect(m.atoms.uiso[0]).toBeCloseTo(1.5791 / (8 * Math.PI * Math.PI), 12);
+    expect(m.atoms.occupancy[0]).toBe(0.5);
+    expect(m.atoms.occupancy[1]).toBe(1);
+    expect(m.warnings.join('\n')).toMatch(/Fe3\+: no ion form factor/);
+    expect(m.warnings.join('\n')).toMatch(/no displacement parameter for O1/);
+  });
+
+  it('takes the symmetry from a Hall symbol and completes a list that is not a group', () => {
+    const hall = read(BASE + `_space_group_name_Hall '-P 2ybc'
+loop_
+_atom_site_label
+_atom_site_fract_x
+_atom_site_fract_y
+_atom_site_fract_z
+C1 0.1 0.2 0.3
+`);
+    if (!hall.ok) throw hall.error;
+    expect(hall.value.ops.length).toBe(4);
+    expect(hall.value.warnings.join()).toMatch(/element C taken from the label/);
+    const partial = read(BASE + `loop_
+_space_group_symop_operation_xyz
+'-x,y+1/2,-z+1/2'
+'-x,-y,-z'
+loop_
+_atom_site_label
+_atom_site_type_symbol
+_atom_site_fract_x
+_atom_site_fract_y
+_atom_site_fract_z
+C1 C 0.1 0.2 0.3
+`);
+    if (!partial.ok) throw partial.error;
+    expect(partial.value.ops.length).toBe(4);
+    expect(partial.value.warnings.join()).toMatch(/do not form a group; completed to 4/);
+  });
+
+  it('reports an unknown element with line and column', () => {
+    const r = read(BASE + `_symmetry_space_group_name_H-M 'P 1'
+loop_
+_atom_site_label
+_atom_site_type_symbol
+_atom_site_fract_x
+_atom_site_fract_y
+_atom_site_fract_z
+C1 C 0.1 0.2 0.3
+Q1 Qq 0.1 0.2 0.3
+`);
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    expect(r.error.describe()).toMatch(/^test\.cif:16:4: unknown element 'Qq' for atom Q1/);
+  });
+
+  it('reports a bad operation at its place in the file', () => {
+    const r = read(BASE + `loop_
+_space_group_symop_operation_xyz
+'x,y,z'
+'x,y,w'
+loop_
+_atom_site_label
+_atom_site_fract_x
+_atom_site_fract_y
+_atom_site_fract_z
+C1 0.1 0.2 0.3
+`);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.error.describe()).toMatch(/^test\.cif:11:\d+: .*x,y,w/);
+  });
+
+  it('reports missing symmetry, missing cell, unknown group, non-number coordinate, a reflection file', () => {
+    const atoms = `loop_
+_atom_site_label
+_atom_site_fract_x
+_atom_site_fract_y
+_atom_site_fract_z
+C1 0.1 0.2 0.3
+`;
+    const noSym = read(BASE + atoms);
+    expect(!noSym.ok && noSym.error.describe()).toMatch(/gives no symmetry/);
+    const noCell = read(`data_x\n_symmetry_space_group_name_H-M 'P 1'\n` + atoms);
+    expect(!noCell.ok && noCell.error.describe()).toMatch(/_cell_length_a is missing/);
+    const badGroup = read(BASE + `_symmetry_space_group_name_H-M 'P 7 x'\n` + atoms);
+    expect(!badGroup.ok && badGroup.error.describe()).toMatch(/test\.cif:8:\d+: unknown space-group symbol 'P 7 x'/);
+    const badNum = read(BASE + `_symmetry_space_group_name_H-M 'P 1'\n` + atoms.replace('0.2', 'abc'));
+    expect(!badNum.ok && badNum.error.describe()).toMatch(/test\.cif:14:\d+: _atom_site_fract_y of C1: 'abc' is not a number/);
+    const refl = read(BASE + `loop_\n_refln_index_h\n_refln_index_k\n_refln_index_l\n1 2 3\n`);
+    expect(!refl.ok && refl.error.describe()).toMatch(/no atom sites.*reflection file/);
+    const aniso = read(BASE + `_symmetry_space_group_name_H-M 'P 1'\n` + atoms + `loop_
+_atom_site_aniso_label
+_atom_site_aniso_U_11
+_atom_site_aniso_U_22
+_atom_site_aniso_U_33
+_atom_site_aniso_U_12
+_atom_site_aniso_U_13
+_atom_site_aniso_U_23
+X9 0.01 0.01 0.01 0 0 0
+`);
+    expect(!aniso.ok && aniso.error.describe()).toMatch(/X9, which is not among the atom sites/);
+    expect(read('').ok).toBe(false);
+  });
+});
