@@ -1,0 +1,211 @@
+import type { ReflectionTable } from '../core';
+import { clamp, logAddExp, logNormalCdf, logNormalPdf } from './special-functions';
+
+/** A reflection condition as the symmetry layer and `lacuna groups` give it. */
+export interface ConditionLike {
+  readonly text: string;
+  readonly zone: readonly (readonly number[])[];
+  readonly coeffs: readonly number[];
+  readonly modulus: number;
+}
+
+export function conditionKey(c: ConditionLike): string {
+  return `${c.zone.map((e) => e.join(',')).join(';')}|${c.coeffs.join(',')}|${c.modulus}`;
+}
+
+/** Is h in the zone of the condition and forbidden by it? (conventions, section 2) */
+export function forbids(c: ConditionLike, h: number, k: number, l: number): boolean {
+  for (const e of c.zone) if (e[0] * h + e[1] * k + e[2] * l !== 0) return false;
+  const v = c.coeffs[0] * h + c.coeffs[1] * k + c.coeffs[2] * l;
+  return v % c.modulus !== 0;
+}
+
+/** Per-condition evidence over the data. */
+export interface ConditionEvidence {
+  readonly condition: ConditionLike;
+  /** Observed reflections in the condition's zone. */
+  readonly nZone: number;
+  /** Observed reflections the condition forbids ("tested"). */
+  readonly n: number;
+  readonly meanIOverSigma: number;
+  /** Forbidden reflections with I/sigma >= 3. */
+  readonly nStrong: number;
+  /** Forbidden reflections with 2 <= I/sigma < 6 (weak violations, e.g. multiple diffraction). */
+  readonly nWeakViolations: number;
+  /** Sum over forbidden reflections of log p(I | absent) - log p(I | present), nats. */
+  readonly logOddsIntensities: number;
+  /**
+   * Evidence (nats) from a forbidden class with no observations at all while the zone is well
+   * sampled: files whose absences were filtered out before they were written.
+   */
+  readonly logOddsMissing: number;
+  /** True when the zone has observations but none in the forbidden class. */
+  readonly forbiddenClassMissing: boolean;
+  readonly probabilityAbsent: number;
+  /** Rows of the strongest forbidden reflections (by I/sigma), strongest first, at most 10. */
+  readonly strongest: number[];
+}
+
+export interface AbsenceEvidence {
+  readonly conditions: ConditionEvidence[];
+  /** Map from condition key to its index in `conditions`. */
+  readonly indexOf: Map<string, number>;
+  /** Distinct sets of conditions that forbid a reflection, with the summed log-odds of those reflections. */
+  readonly patterns: { ids: number[]; logOdds: number; count: number }[];
+  /** Per-reflection log-odds absent : present (NaN for reflections no condition forbids). */
+  readonly reflectionLogOdds: Float64Array;
+}
+
+export interface AbsenceModel {
+  /** Robust scale of sigma (true error = k sigma). */
+  readonly k: number;
+  /** Fraction of "absent" reflections allowed a weak violation (broader error, x4). */
+  readonly violationFraction: number;
+}
+
+/**
+ * log p(I | absent) - log p(I | present) for one reflection.
+ * Absent: I ~ N(0, (k sigma)^2), mixed with a small fraction of N(0, (4 k sigma)^2) for weak
+ * violations such as multiple diffraction. Present: the acentric Wilson distribution of
+ * its shell, p(J) = exp(-J/S)/S, convolved with the measurement error N(0, (k sigma)^2);
+ * closed form as in French & Wilson (1978), Acta Cryst. A34, 517-525.
+ * Limited to [-12, +4] nats: one reflection never decides alone, and a very precise zero
+ * is only so much more likely under "absent" than under "weak but present".
+ */
+export function reflectionLogOdds(I: number, sigma: number, S: number, model: AbsenceModel): number {
+  const s = Math.max(model.k * sigma, 1e-12 * Math.max(S, 1));
+  const eps = model.violationFraction;
+  const la = logAddExp(Math.log(1 - eps) + logNormalPdf(I, s), Math.log(eps) + logNormalPdf(I, 4 * s));
+  const Sp = Math.max(S, 1e-30);
+  const lp = -Math.log(Sp) - I / Sp + (s * s) / (2 * Sp * Sp) + logNormalCdf((I - (s * s) / Sp) / s);
+  return clamp(la - lp, -12, 4);
+}
+
+/** Per-condition weight and cap of the "missing forbidden class" evidence. */
+export const MISSING_CLASS_WEIGHT = 0.5;
+export const MISSING_CLASS_CAP = 10;
+
+/**
+ * Evaluate every distinct condition once per reflection, grouped by zone so that a reflection
+ * outside a zone costs one dot product for all conditions of that zone. Linear in reflections.
+ *
+ * Missing-class evidence: if the N observed reflections of a zone all fall in the allowed class
+ * of a condition with modulus m, a uniformly sampled zone would have produced that with
+ * probability (1/m)^N if the forbidden class were present. Files filtered by their depositor
+ * make this the only trace of the absences, but it mirrors the depositor's choice as much as
+ * the crystal, so it enters with weight 1/2 and at most 10 nats per condition (a judgement).
+ */
+export function absenceEvidence(
+  table: ReflectionTable, expected: Float64Array, conditions: readonly ConditionLike[], model: AbsenceModel,
+): AbsenceEvidence {
+  const n = table.n;
+  const nc = conditions.length;
+  const indexOf = new Map<string, number>();
+  conditions.forEach((c, j) => indexOf.set(conditionKey(c), j));
+  // group conditions by zone
+  const zoneKeys = new Map<string, number>();
+  const zones: (readonly (readonly number[])[])[] = [];
+  const zoneOf = new Int32Array(nc);
+  conditions.forEach((c, j) => {
+    const zk = c.zone.map((e) => e.join(',')).join(';');
+    let z = zoneKeys.get(zk);
+    if (z === undefined) { z = zones.length; zoneKeys.set(zk, z); zones.push(c.zone); }
+    zoneOf[j] = z;
+  });
+  const condsOfZone: number[][] = zones.map(() => []);
+  for (let j = 0; j < nc; j++) condsOfZone[zoneOf[j]].push(j);
+  const zoneRows = zones.map((z) => z.map((e) => [e[0], e[1], e[2]]));
+  const coeffs = conditions.map((c) => [c.coeffs[0], c.coeffs[1], c.coeffs[2]]);
+  const moduli = conditions.map((c) => c.modulus);
+
+  const nZone = new Int32Array(zones.length);
+  const nForb = new Int32Array(nc), nStrong = new Int32Array(nc), nWeak = new Int32Array(nc);
+  const sumIs = new Float64Array(nc), sumLo = new Float64Array(nc);
+  const strongest: number[][] = conditions.map(() => []);
+  const perReflection = new Float64Array(n).fill(NaN);
+  const patternMap = new Map<string, { ids: number[]; logOdds: number; count: number }>();
+  const ids: number[] = [];
+
+  for (let j = 0; j < n; j++) {
+    const h = table.h[j], k = table.k[j], l = table.l[j];
+    ids.length = 0;
+    for (let z = 0; z < zones.length; z++) {
+      const rows = zoneRows[z];
+      let inZone = true;
+      for (let e = 0; e < rows.length; e++) {
+        const r = rows[e];
+        if (r[0] * h + r[1] * k + r[2] * l !== 0) { inZone = false; break; }
+      }
+      if (!inZone) continue;
+      nZone[z]++;
+      const cz = condsOfZone[z];
+      for (let q = 0; q < cz.length; q++) {
+        const c = cz[q];
+        const co = coeffs[c];
+        if ((co[0] * h + co[1] * k + co[2] * l) % moduli[c] !== 0) ids.push(c);
+      }
+    }
+    if (ids.length === 0) continue;
+    const sig = table.sigma[j];
+    const I = table.i[j];
+    const lo = reflectionLogOdds(I, sig, expected[j], model);
+    perReflection[j] = lo;
+    const ios = sig > 0 ? I / sig : 0;
+    ids.sort((a, b) => a - b);
+    for (const c of ids) {
+      nForb[c]++;
+      sumIs[c] += ios;
+      sumLo[c] += lo;
+      if (ios >= 3) nStrong[c]++;
+      if (ios >= 2 && ios < 6) nWeak[c]++;
+      insertStrongest(strongest[c], j, table);
+    }
+    const key = ids.join(',');
+    let p = patternMap.get(key);
+    if (!p) { p = { ids: ids.slice(), logOdds: 0, count: 0 }; patternMap.set(key, p); }
+    p.logOdds += lo;
+    p.count++;
+  }
+
+  const out: ConditionEvidence[] = conditions.map((c, j) => {
+    const nz = nZone[zoneOf[j]];
+    const missing = nForb[j] === 0 && nz >= 3;
+    const logOddsMissing = missing ? Math.min(MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT * nz * Math.log(c.modulus)) : 0;
+    const total = sumLo[j] + logOddsMissing;
+    return {
+      condition: c,
+      nZone: nz,
+      n: nForb[j],
+      meanIOverSigma: nForb[j] ? sumIs[j] / nForb[j] : NaN,
+      nStrong: nStrong[j],
+      nWeakViolations: nWeak[j],
+      logOddsIntensities: sumLo[j],
+      logOddsMissing,
+      forbiddenClassMissing: missing,
+      probabilityAbsent: 1 / (1 + Math.exp(-clamp(total, -700, 700))),
+      strongest: strongest[j],
+    };
+  });
+  return { conditions: out, indexOf, patterns: [...patternMap.values()], reflectionLogOdds: perReflection };
+}
+
+function insertStrongest(list: number[], j: number, table: ReflectionTable): void {
+  const ios = (r: number) => (table.sigma[r] > 0 ? table.i[r] / table.sigma[r] : 0);
+  const v = ios(j);
+  if (list.length === 10 && v <= ios(list[9])) return;
+  let p = list.length;
+  while (p > 0 && ios(list[p - 1]) < v) p--;
+  list.splice(p, 0, j);
+  if (list.length > 10) list.pop();
+}
+
+/**
+ * Is every reflection that `a` forbids also forbidden by `b`? Checked on all indices up to 6
+ * in magnitude, enough for moduli up to 6 and the zones of the settings table.
+ */
+export function forbiddenSubset(a: ConditionLike, b: ConditionLike): boolean {
+  for (let h = -6; h <= 6; h++)
+    for (let k = -6; k <= 6; k++)
+      for (let l = -6; l <= 6; l++) if (forbids(a, h, k, l) && !forbids(b, h, k, l)) return false;
+  return true;
+}

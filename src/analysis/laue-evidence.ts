@@ -1,0 +1,188 @@
+import type { ReflectionTable } from '../core';
+import type { HklIndex } from './hkl-index';
+import { clamp, logNormalCdf, logNormalPdf } from './special-functions';
+
+/** A proper rotation acting on Miller indices as h' = h R (R row-major, integer). */
+export type Rotation = Int32Array | readonly number[];
+
+export function rotationKeyText(r: ArrayLike<number>): string {
+  return Array.from(r).join(',');
+}
+
+/** Agreement of I(h) with I(hR) for one rotation R over the pairs present in the data. */
+export interface RotationAgreement {
+  readonly r: number[];
+  /** Axis order (2, 3, 4, 6) and a short description of the axis direction, e.g. "2 along [010]". */
+  readonly label: string;
+  /** Pairs of different reflections related by R (Friedel mates counted as the same position). */
+  readonly pairs: number;
+  /** Pearson correlation of normalised intensities over the pairs (NaN with < 3 pairs). */
+  readonly cc: number;
+  /** Correlation expected if R were exact symmetry, given the measurement errors. */
+  readonly ccExpected: number;
+  /** Reflections whose R-image is a different position (so a pair would be possible). */
+  readonly distinct: number;
+  /** No pair although many were possible: the file was probably reduced (merged) under R. */
+  readonly merged: boolean;
+  /** log-likelihood (nats) of the agreement if R is symmetry minus if it is not. */
+  readonly logOdds: number;
+}
+
+function mulRot(a: ArrayLike<number>, b: ArrayLike<number>): number[] {
+  const c = new Array<number>(9).fill(0);
+  for (let i = 0; i < 3; i++)
+    for (let j = 0; j < 3; j++) {
+      let v = 0;
+      for (let k = 0; k < 3; k++) v += a[i * 3 + k] * b[k * 3 + j];
+      c[i * 3 + j] = v;
+    }
+  return c;
+}
+
+function isIdentity(r: ArrayLike<number>): boolean {
+  return r[0] === 1 && r[4] === 1 && r[8] === 1 && r[1] === 0 && r[2] === 0 && r[3] === 0 && r[5] === 0 && r[6] === 0 && r[7] === 0;
+}
+
+export function rotationOrderOf(r: ArrayLike<number>): number {
+  let m = Array.from(r);
+  for (let n = 1; n <= 6; n++) {
+    if (isIdentity(m)) return n;
+    m = mulRot(m, r);
+  }
+  return 0;
+}
+
+export function inverseRotation(r: ArrayLike<number>): number[] {
+  const n = rotationOrderOf(r);
+  let m = Array.from(r);
+  for (let j = 1; j < n - 1; j++) m = mulRot(m, r);
+  return n === 1 ? Array.from(r) : m;
+}
+
+/** Direction of the rotation axis in direct space (the fixed vector of R acting on columns). */
+function axisLabel(r: ArrayLike<number>): string {
+  const n = rotationOrderOf(r);
+  // The axis is the null space of (R - I); try small integer vectors.
+  let best = '';
+  outer: for (let s = 1; s <= 2; s++)
+    for (let u = -s; u <= s; u++)
+      for (let v = -s; v <= s; v++)
+        for (let w = -s; w <= s; w++) {
+          if (u === 0 && v === 0 && w === 0) continue;
+          const x = r[0] * u + r[1] * v + r[2] * w, y = r[3] * u + r[4] * v + r[5] * w, z = r[6] * u + r[7] * v + r[8] * w;
+          if (x === u && y === v && z === w) {
+            const sgn = [u, v, w].find((q) => q !== 0)! < 0 ? -1 : 1;
+            best = `[${[u * sgn, v * sgn, w * sgn].map((q) => (q < 0 ? `-${-q}` : `${q}`)).join('')}]`;
+            break outer;
+          }
+        }
+  return `${n}-fold along ${best || '?'}`;
+}
+
+/**
+ * Keep one of each {R, R^-1} pair (they relate the same pairs of reflections) and drop the identity.
+ */
+export function distinctRotations(rotations: readonly ArrayLike<number>[]): number[][] {
+  const seen = new Set<string>();
+  const out: number[][] = [];
+  for (const r of rotations) {
+    if (isIdentity(r)) continue;
+    const k = rotationKeyText(r), ki = rotationKeyText(inverseRotation(r));
+    if (seen.has(k) || seen.has(ki)) continue;
+    seen.add(k);
+    out.push(Array.from(r));
+  }
+  return out;
+}
+
+/**
+ * Agreement statistics per rotation.
+ *
+ * The correlation (shown to the user) compares normalised intensities E^2 clipped to [-2, 12];
+ * its value expected under exact symmetry is var(true E^2)/var(observed E^2) from the errors.
+ * The evidence itself is a likelihood ratio per pair (see `pairLogOdds`), because a correlation
+ * is dominated by the strong reflections and stays high under pseudo-symmetry, while the
+ * differences measured against their errors do not. Each rotation's log-odds is limited to
+ * +-30 nats.
+ */
+export function rotationAgreements(
+  table: ReflectionTable, e2: Float64Array, sE: Float64Array, rotations: readonly number[][], index: HklIndex,
+  expected: Float64Array, k: number,
+): RotationAgreement[] {
+  const n = table.n;
+  const stride = Math.max(1, Math.floor(n / 200_000));
+  return rotations.map((r) => {
+    const involution = isIdentity(mulRot(r, r));
+    let pairs = 0, distinct = 0;
+    let sx = 0, sy = 0, sxx = 0, syy = 0, sxy = 0, sNoise = 0;
+    for (let j = 0; j < n; j += stride) {
+      const h = table.h[j], k = table.k[j], l = table.l[j];
+      const h2 = h * r[0] + k * r[3] + l * r[6];
+      const k2 = h * r[1] + k * r[4] + l * r[7];
+      const l2 = h * r[2] + k * r[5] + l * r[8];
+      if ((h2 === h && k2 === k && l2 === l) || (h2 === -h && k2 === -k && l2 === -l)) continue;
+      distinct++;
+      const q = index.findWithFriedel(h2, k2, l2);
+      if (q < 0 || q === j || (involution && q < j)) continue;
+      const x = clamp(e2[j], -2, 12), y = clamp(e2[q], -2, 12);
+      pairs++;
+      sx += x; sy += y; sxx += x * x; syy += y * y; sxy += x * y;
+      sNoise += 0.5 * (sE[j] * sE[j] + sE[q] * sE[q]);
+    }
+    let cc = NaN, ccExpected = 0.9;
+    if (pairs >= 3) {
+      const vx = sxx / pairs - (sx / pairs) ** 2, vy = syy / pairs - (sy / pairs) ** 2;
+      const cov = sxy / pairs - (sx / pairs) * (sy / pairs);
+      cc = vx > 0 && vy > 0 ? cov / Math.sqrt(vx * vy) : 0;
+      const v = 0.5 * (vx + vy);
+      ccExpected = v > 0 ? clamp((v - sNoise / pairs) / v, 0.2, 0.97) : 0.2;
+    }
+    const merged = pairs === 0 && distinct >= 20;
+    const logOdds = pairs >= 1 ? clamp(pairLogOddsSum(table, expected, k, r, index, stride, involution), -30, 30) : 0;
+    return { r, label: axisLabel(r), pairs, cc, ccExpected, distinct, merged, logOdds };
+  });
+}
+
+/** Evidence (nats) that a rotation belongs to the Laue group because the file was merged under it. */
+export const MERGED_ROTATION_LOG_ODDS = 1.5;
+
+/**
+ * log p(I1, I2 | same true intensity) - log p(I1) p(I2) (independent), for acentric Wilson
+ * intensities with mean S and Gaussian errors s1, s2. With J ~ exp(-J/S)/S:
+ * same: N(I1 - I2; 0, s1^2 + s2^2) * int p(J) N(J; mu, v) dJ, mu and v the error-weighted mean
+ * and its variance; independent: the product of the French & Wilson (1978) marginals.
+ * Limited to [-4, +4] per pair so that a few outliers (zingers, overlaps) do not decide.
+ */
+export function pairLogOdds(I1: number, s1: number, I2: number, s2: number, S: number): number {
+  const v1 = s1 * s1, v2 = s2 * s2, vs = v1 + v2;
+  const mu = (I1 * v2 + I2 * v1) / vs, v = (v1 * v2) / vs, sv = Math.sqrt(v);
+  const lSame = logNormalPdf(I1 - I2, Math.sqrt(vs)) + logWilsonGauss(mu, sv, S);
+  const lInd = logWilsonGauss(I1, s1, S) + logWilsonGauss(I2, s2, S);
+  return clamp(lSame - lInd, -4, 4);
+}
+
+/** log of int_0^inf exp(-J/S)/S N(x - J; 0, s^2) dJ (acentric Wilson convolved with an error). */
+function logWilsonGauss(x: number, s: number, S: number): number {
+  return -Math.log(S) - x / S + (s * s) / (2 * S * S) + logNormalCdf((x - (s * s) / S) / s);
+}
+
+/**
+ * Sum of pair log-odds over the pairs (h, hR) present. Errors: k sigma plus 3 % of the
+ * intensity (a proportional error from absorption and scaling, common practice).
+ */
+function pairLogOddsSum(
+  table: ReflectionTable, expected: Float64Array, k: number, r: readonly number[], index: HklIndex, stride: number, involution: boolean,
+): number {
+  let sum = 0;
+  for (let j = 0; j < table.n; j += stride) {
+    const h = table.h[j], kk = table.k[j], l = table.l[j];
+    const q = index.findWithFriedel(h * r[0] + kk * r[3] + l * r[6], h * r[1] + kk * r[4] + l * r[7], h * r[2] + kk * r[5] + l * r[8]);
+    if (q < 0 || q === j || (involution && q < j)) continue;
+    const I1 = table.i[j], I2 = table.i[q];
+    const e1 = Math.hypot(k * table.sigma[j], 0.03 * Math.max(I1, 0)) || 1e-6;
+    const e2 = Math.hypot(k * table.sigma[q], 0.03 * Math.max(I2, 0)) || 1e-6;
+    const S = Math.max(0.5 * (expected[j] + expected[q]), 1e-30);
+    sum += pairLogOdds(I1, e1, I2, e2, S);
+  }
+  return sum;
+}

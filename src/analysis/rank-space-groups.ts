@@ -1,0 +1,699 @@
+import { fail, ok, type CellParams, type ReflectionTable, type Result } from '../core';
+import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis } from '../lattice';
+import { allSettings, changeBasisOp, opSetKey, type SpaceGroupSetting } from '../symmetry';
+import { absenceEvidence, conditionKey, forbiddenSubset, forbids, type ConditionLike } from './absence-evidence';
+import { candidateSettings, DEFAULT_TOLERANCE, metricLogPenalty, type MetricTolerance } from './candidates';
+import { HklIndex } from './hkl-index';
+import { intensityStatistics, THEORY } from './intensity-statistics';
+import { distinctRotations, inverseRotation, MERGED_ROTATION_LOG_ODDS, rotationAgreements, rotationKeyText } from './laue-evidence';
+import { mergeIdentical } from './merge';
+import { buildShells, expectedIntensityColumn, wilsonPlot } from './normalisation';
+import { sigmaScaleFromNegatives, sigmaScaleFromPairs } from './sigma-scale';
+import { softmax } from './special-functions';
+
+export interface RankOptions {
+  /** Cell to use instead of the one in the file. */
+  readonly cell?: CellParams;
+  /** Enantiopure (chiral) sample: Sohncke groups only. */
+  readonly chiral?: boolean;
+  /** Metric tolerance for candidate settings (defaults: 2 % lengths, 1.5 degrees). */
+  readonly tolerance?: Partial<MetricTolerance>;
+  /** Settings to consider (default: every setting of the table). */
+  readonly settings?: readonly SpaceGroupSetting[];
+}
+
+/** Progress callback: fraction done (0..1) and the stage. Return false to cancel. */
+export type RankProgress = (fraction: number, stage: string) => boolean | void;
+
+/**
+ * The result of `rankSpaceGroups`, in the same shape as `lacuna rank --json`
+ * (snake_case keys, plain numbers and arrays). Documented in DEVELOPERS.md.
+ */
+export interface RankResult {
+  input: {
+    source: string;
+    reflections: number;
+    observations: number;
+    merged_from_unmerged: boolean;
+    r_int: number | null;
+    sigmas_estimated: boolean;
+    negative_fraction: number;
+    d_min: number;
+    d_max: number;
+    completeness: number | null;
+  };
+  cell: CellParams;
+  tolerance: MetricTolerance;
+  laue: {
+    classes: LaueClassReport[];
+    rotations: {
+      rotation: string; label: string; pairs: number; cc: number | null; cc_expected: number;
+      merged: boolean; log_odds: number;
+    }[];
+  };
+  statistics: {
+    sigma_scale: number;
+    sigma_scale_source: string;
+    wilson_b: number;
+    wilson_ln_scale: number;
+    general_reflections: number;
+    mean_abs_e2_minus_1: number;
+    second_moment: number;
+    theory: typeof THEORY;
+    nz: { z: number[]; observed: number[]; acentric: number[]; centric: number[]; acentric_with_errors: number[]; centric_with_errors: number[] };
+    centric_fraction: number;
+    centric_log_odds: number;
+    probability_centric: number;
+    l_test: { pairs: number; mean_abs_l: number; mean_l2: number };
+    shells: { d_min: number; n: number; mean_i: number; mean_i_over_sigma: number }[];
+  };
+  conditions: ConditionReport[];
+  candidates: CandidateReport[];
+  classes: ClassReport[];
+  absences_removed: boolean;
+  warnings: string[];
+  caution: string;
+}
+
+export interface LaueClassReport {
+  symbol: string;
+  axes: string;
+  probability: number;
+  probability_from_symmetry: number;
+  log_likelihood: number;
+  settings: number;
+}
+
+export interface ConditionReport {
+  text: string;
+  zone: number[][];
+  coeffs: number[];
+  modulus: number;
+  n: number;
+  mean_i_over_sigma: number | null;
+  n_strong: number;
+  probability_absent: number;
+  n_zone: number;
+  weak_violations: number;
+  forbidden_class_missing: boolean;
+  log_odds: number;
+}
+
+export interface CandidateReport {
+  number: number;
+  hm: string;
+  hall: string;
+  probability: number;
+  class_id: number;
+  class_probability: number;
+  laue: string;
+  crystal_system: string;
+  centrosymmetric: boolean;
+  sohncke: boolean;
+  standard: boolean;
+  change_of_basis: string | null;
+  metric_deviation: { length_percent: number; angle_deg: number };
+  evidence: { laue: number; absences: number; missing_classes: number; centric: number };
+  conditions: { text: string; n: number; mean_i_over_sigma: number | null; n_strong: number; probability_absent: number; forbidden_class_missing: boolean }[];
+  against: { h: number; k: number; l: number; i_over_sigma: number; condition: string }[];
+}
+
+export interface ClassReport {
+  id: number;
+  probability: number;
+  members: string[];
+  separated_by: string | null;
+}
+
+export const RANK_CAUTION =
+  'A space group chosen from systematic absences and intensity statistics is a hypothesis: structure solution and refinement must confirm it.';
+
+const MIN_REFLECTIONS = 20;
+
+function estimateSigmas(table: ReflectionTable): { table: ReflectionTable; estimated: boolean; patched: number } {
+  let bad = 0, sumAbs = 0;
+  for (let j = 0; j < table.n; j++) {
+    if (!(table.sigma[j] > 0) || !Number.isFinite(table.sigma[j])) bad++;
+    sumAbs += Math.abs(table.i[j]);
+  }
+  if (bad === 0) return { table, estimated: false, patched: 0 };
+  const meanAbs = sumAbs / Math.max(1, table.n);
+  const sigma = new Float32Array(table.n);
+  for (let j = 0; j < table.n; j++) {
+    const s = table.sigma[j];
+    // counting-statistics-like guess: 5 % of I plus 2 % of the mean intensity (common practice)
+    sigma[j] = s > 0 && Number.isFinite(s) ? s : 0.05 * Math.abs(table.i[j]) + 0.02 * meanAbs;
+  }
+  return { table: { ...table, sigma }, estimated: bad === table.n, patched: bad };
+}
+
+/** Proper rotation parts (R or -R with det +1) of a setting: its Laue group modulo inversion. */
+function properRotations(s: SpaceGroupSetting): number[][] {
+  const seen = new Set<string>();
+  const out: number[][] = [];
+  for (const r of s.rotations) {
+    const d = r[0] * (r[4] * r[8] - r[5] * r[7]) - r[1] * (r[3] * r[8] - r[5] * r[6]) + r[2] * (r[3] * r[7] - r[4] * r[6]);
+    const p = d > 0 ? Array.from(r) : Array.from(r, (v) => -v);
+    const k = rotationKeyText(p);
+    if (!seen.has(k)) { seen.add(k); out.push(p); }
+  }
+  return out;
+}
+
+/** Screw-axis swaps that turn a symbol into its mirror image. */
+function describeSeparation(members: SpaceGroupSetting[]): string | null {
+  if (members.length < 2) return null;
+  const numbers = new Set(members.map((m) => m.number));
+  if (numbers.size === 1) return 'the same space-group type in different settings; pick either';
+  const enantio = members.some((a) => a.enantiomorph && members.some((b) => b.hm === a.enantiomorph));
+  const parts: string[] = [];
+  if (enantio)
+    parts.push('enantiomorphic pair: only the absolute structure (anomalous scattering, Flack parameter) separates them');
+  const pgs = new Set(members.map((m) => m.pointGroup));
+  if (pgs.size > 1 || !enantio)
+    parts.push(
+      'same Laue class, same absences and same centric/acentric statistics: intensities cannot separate them; ' +
+        'solve and refine in each (or use a physical test such as second-harmonic generation or pyroelectricity)',
+    );
+  return parts.join('; ');
+}
+
+/** Change of basis from a setting to the standard setting of its type, if a simple one exists. */
+function findChangeToStandard(s: SpaceGroupSetting, standard: SpaceGroupSetting): string | null {
+  const target = opSetKey(standard.ops);
+  const tryP = (P: number[], p: number[]): boolean => {
+    const ops = [];
+    for (const o of s.ops) {
+      const r = changeBasisOp(o, P, p);
+      if (!r.ok) return false;
+      ops.push(r.value);
+    }
+    return opSetKey(ops) === target;
+  };
+  const mats: number[][] = [];
+  const vals = [-1, 0, 1];
+  for (let m = 0; m < 19683; m++) {
+    const P: number[] = [];
+    let x = m;
+    for (let j = 0; j < 9; j++) { P.push(vals[x % 3]); x = Math.floor(x / 3); }
+    const d = P[0] * (P[4] * P[8] - P[5] * P[7]) - P[1] * (P[3] * P[8] - P[5] * P[6]) + P[2] * (P[3] * P[7] - P[4] * P[6]);
+    if (d === 1) mats.push(P);
+  }
+  // identity-like matrices first (fewest changes), then the rest
+  const weight = (P: number[]) => P.filter((v) => v !== 0).length * 10 + P.filter((v, j) => v !== (j % 4 === 0 ? 1 : 0)).length;
+  mats.sort((a, b) => weight(a) - weight(b));
+  const zero = [0, 0, 0];
+  for (const P of mats) if (tryP(P, zero)) return formatChangeOfBasis(changeOfBasisFromMatrix(P));
+  // origin shift only (origin choices)
+  for (let a = 0; a < 8; a++)
+    for (let b = 0; b < 8; b++)
+      for (let c = 0; c < 8; c++) {
+        const p = [3 * a, 3 * b, 3 * c];
+        if (tryP([1, 0, 0, 0, 1, 0, 0, 0, 1], p)) {
+          const f = (v: number) => (v === 0 ? '0' : `${v / 3}/8`.replace('4/8', '1/2').replace('2/8', '1/4').replace('6/8', '3/4'));
+          return `a,b,c;${p.map(f).join(',')}`;
+        }
+      }
+  return null;
+}
+
+/**
+ * Rank the space-group settings the data allow.
+ *
+ * Evidence combined per candidate setting (natural-log units):
+ * - Laue class: agreement of symmetry-related intensities per rotation (laue-evidence.ts),
+ *   rotations the file was evidently merged under, and a soft metric penalty;
+ * - absences: per-reflection log-odds absent:present summed over the reflections the
+ *   candidate forbids (exact for overlapping conditions), plus the missing-class evidence of
+ *   filtered files (absence-evidence.ts);
+ * - centrosymmetry: the N(z) and second-moment log-odds (intensity-statistics.ts), added to
+ *   centrosymmetric candidates.
+ * Prior: uniform over Laue classes the metric allows, uniform over settings within a class.
+ * Probabilities are the normalised posteriors. Linear in the number of reflections.
+ */
+export function rankSpaceGroups(input: ReflectionTable, options: RankOptions = {}, onProgress?: RankProgress): Result<RankResult> {
+  const progress = (f: number, stage: string) => {
+    if (onProgress && onProgress(f, stage) === false) throw new RankCancelled();
+  };
+  try {
+    return rankInner(input, options, progress);
+  } catch (e) {
+    if (e instanceof RankCancelled) return fail('ranking cancelled');
+    throw e;
+  }
+}
+
+class RankCancelled extends Error {}
+
+function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: number, s: string) => void): Result<RankResult> {
+  const src = input.meta.source;
+  const warnings: string[] = [];
+  if (input.n === 0) return fail('no reflections to analyse: nothing can be concluded about the space group', { file: src });
+  if (input.n < MIN_REFLECTIONS)
+    return fail(
+      `only ${input.n} reflections: too few to test reflection conditions or intensity statistics (at least ${MIN_REFLECTIONS} needed)`,
+      { file: src },
+    );
+  let allZero = true;
+  for (let j = 0; j < input.n; j++) if (input.i[j] !== 0) { allZero = false; break; }
+  if (allZero)
+    return fail('every intensity is zero: neither absences nor the Laue class can be judged from these data', { file: src });
+
+  const cellParams = options.cell ?? input.meta.cell;
+  if (!cellParams)
+    return fail('the file gives no unit cell, and ranking needs one (candidate settings must fit the metric)', { file: src }, 'Give it with --cell a,b,c,alpha,beta,gamma.');
+  const cellR = makeCell(cellParams, { file: src });
+  if (!cellR.ok) return cellR;
+  const cell = cellR.value;
+
+  // --- sigmas, merging
+  const est = estimateSigmas(input);
+  let table = est.table;
+  if (est.estimated) warnings.push('the file gives no standard uncertainties: they were estimated (5 % of I plus 2 % of the mean), so every probability below is less reliable');
+  else if (est.patched) warnings.push(`${est.patched} reflections had a zero or missing sigma; an estimate was used for them`);
+  let index = new HklIndex(table);
+  let rInt: number | null = null;
+  let mergedFromUnmerged = false;
+  let kFromRepeats = NaN;
+  const observations = table.n;
+  if (index.duplicates > 0 || table.meta.unmerged) {
+    const m = mergeIdentical(table);
+    table = m.table;
+    index = new HklIndex(table);
+    mergedFromUnmerged = true;
+    rInt = Number.isFinite(m.rInt) ? m.rInt : null;
+    kFromRepeats = m.sigmaScale;
+    warnings.push(
+      `unmerged input: ${m.observations} observations merged into ${m.unique} unique indices` +
+        (rInt !== null ? ` (R_int = ${rInt.toFixed(3)} over ${m.repeated} repeated indices)` : '') +
+        '; symmetry-equivalent indices were kept apart for the Laue-class test',
+    );
+  }
+  const n = table.n;
+  progress(0.1, 'candidates');
+
+  // --- candidates
+  const tol: MetricTolerance = { ...DEFAULT_TOLERANCE, ...options.tolerance };
+  let cands = candidateSettings(options.settings ?? allSettings(), cell, tol);
+  if (options.chiral) cands = cands.filter((c) => c.setting.sohncke);
+  if (cands.length === 0)
+    return fail(
+      `no space-group setting fits the cell ${fmtCell(cell)} within ${tol.lengthPercent} % and ${tol.angleDeg} degrees`,
+      { file: src },
+      'Check the cell, or widen the tolerance.',
+    );
+  const maxSystem = cands.reduce((a, c) => Math.max(a, c.setting.rotations.length), 1);
+  if (maxSystem === 1 || cands.every((c) => c.setting.crystalSystem === 'triclinic'))
+    warnings.push('the cell metric allows only triclinic groups within the tolerance; only P 1 and P -1 are compared');
+
+  // --- proper rotations and Laue classes
+  const candRot = cands.map((c) => properRotations(c.setting));
+  const union = distinctRotations(candRot.flat());
+  const laueKeyOf = (rots: number[][]) => rots.map(rotationKeyText).sort().join(';');
+  const laueKeys = candRot.map(laueKeyOf);
+
+  // --- general reflections (not fixed up to sign by any candidate rotation)
+  const stol2 = stolSquaredColumn(cell, table);
+  const general = new Uint8Array(n);
+  const unionAll = union.flatMap((r) => [r, inverseRotation(r)]);
+  for (let j = 0; j < n; j++) {
+    const h = table.h[j], k = table.k[j], l = table.l[j];
+    let g = 1;
+    if (h === 0 && k === 0 && l === 0) g = 0;
+    for (let q = 0; g && q < unionAll.length; q++) {
+      const r = unionAll[q];
+      const h2 = h * r[0] + k * r[3] + l * r[6], k2 = h * r[1] + k * r[4] + l * r[7], l2 = h * r[2] + k * r[5] + l * r[8];
+      if ((h2 === h && k2 === k && l2 === l) || (h2 === -h && k2 === -k && l2 === -l)) g = 0;
+    }
+    general[j] = g;
+  }
+
+  // --- distinct conditions of the candidates
+  const condList: ConditionLike[] = [];
+  const condIndex = new Map<string, number>();
+  const candConds = cands.map((c) =>
+    c.setting.conditions.map((cond) => {
+      const key = conditionKey(cond);
+      let id = condIndex.get(key);
+      if (id === undefined) { id = condList.length; condIndex.set(key, id); condList.push(cond); }
+      return id;
+    }),
+  );
+
+  // --- sigma scale: repeats, else negatives (refined from symmetry pairs below)
+  let k = 1, kSource = 'assumed 1 (too few repeats, pairs or negative intensities to estimate it)';
+  if (Number.isFinite(kFromRepeats)) { k = kFromRepeats; kSource = 'repeated measurements'; }
+  else {
+    const neg = sigmaScaleFromNegatives(table);
+    if (Number.isFinite(neg.k)) { k = neg.k; kSource = `${neg.negatives} negative intensities`; }
+  }
+
+  // --- pass 1 normalisation
+  let use = general.slice();
+  let shells = buildShells(table, stol2, use);
+  let expected = expectedIntensityColumn(shells, stol2, n);
+  const e2 = new Float64Array(n), sE = new Float64Array(n);
+  const normalise = () => {
+    for (let j = 0; j < n; j++) { e2[j] = table.i[j] / expected[j]; sE[j] = (k * table.sigma[j]) / expected[j]; }
+  };
+  normalise();
+  progress(0.3, 'Laue class');
+
+  // --- Laue evidence
+  let agreements = rotationAgreements(table, e2, sE, union, index, expected, k);
+  const inClass = (key: string, r: number[]) => {
+    const set = key.split(';');
+    return set.includes(rotationKeyText(r)) || set.includes(rotationKeyText(inverseRotation(r)));
+  };
+  // refine k from pairs of rotations that clearly hold
+  if (!Number.isFinite(kFromRepeats)) {
+    const good = agreements.filter((a) => a.logOdds > 3).map((a) => a.r);
+    if (good.length) {
+      const p = sigmaScaleFromPairs(table, good, index);
+      if (Number.isFinite(p.k)) {
+        k = p.k; kSource = `${p.pairs} weak symmetry-equivalent pairs`;
+        normalise();
+        agreements = rotationAgreements(table, e2, sE, union, index, expected, k);
+      }
+    }
+  }
+  const laueClasses = new Map<string, { members: number[]; ll: number }>();
+  laueKeys.forEach((key, c) => {
+    let e = laueClasses.get(key);
+    if (!e) {
+      let ll = metricLogPenalty(cands[c].fit);
+      for (const a of agreements) {
+        if (!inClass(key, a.r)) continue;
+        ll += a.logOdds + (a.merged ? MERGED_ROTATION_LOG_ODDS : 0);
+      }
+      e = { members: [], ll };
+      laueClasses.set(key, e);
+    }
+    e.members.push(c);
+  });
+  progress(0.5, 'absences');
+
+  // --- absences (two passes: reflections forbidden by a clearly obeyed lattice condition are
+  // left out of the normalisation and statistics, or they would dilute the shell means)
+  const model = { k, violationFraction: 0.03 };
+  let abs = absenceEvidence(table, expected, condList, model);
+  const excluded = abs.conditions
+    .map((c, j) => ({ c, j }))
+    .filter(({ c }) => c.probabilityAbsent > 0.999 && c.n >= 10);
+  if (excluded.length) {
+    for (let j = 0; j < n; j++) {
+      if (!use[j]) continue;
+      for (const { c } of excluded) if (forbids(c.condition, table.h[j], table.k[j], table.l[j])) { use[j] = 0; break; }
+    }
+    shells = buildShells(table, stol2, use);
+    expected = expectedIntensityColumn(shells, stol2, n);
+    normalise();
+    abs = absenceEvidence(table, expected, condList, model);
+  }
+  progress(0.7, 'statistics');
+
+  // --- intensity statistics on general, non-absent reflections
+  const stats = intensityStatistics(table, e2, sE, use, index);
+  const wilson = wilsonPlot(shells);
+
+  // --- candidate scores
+  const subsetCache = new Map<string, boolean>();
+  const isSubset = (a: number, b: number) => {
+    const key = `${a}:${b}`;
+    let v = subsetCache.get(key);
+    if (v === undefined) { v = forbiddenSubset(condList[a], condList[b]); subsetCache.set(key, v); }
+    return v;
+  };
+  const scores = cands.map((c, ci) => {
+    const mine = new Set(candConds[ci]);
+    let absLo = 0;
+    for (const p of abs.patterns) if (p.ids.some((id) => mine.has(id))) absLo += p.logOdds;
+    // missing-class evidence, each forbidden set counted once
+    const miss = [...mine].filter((id) => abs.conditions[id].logOddsMissing > 0);
+    let missLo = 0;
+    miss.forEach((a, ia) => {
+      const redundant = miss.some((b, ib) => b !== a && isSubset(a, b) && (!isSubset(b, a) || ib < ia));
+      if (!redundant) missLo += abs.conditions[a].logOddsMissing;
+    });
+    const laue = laueClasses.get(laueKeys[ci])!;
+    const centric = c.setting.centrosymmetric ? stats.centricLogOdds : 0;
+    const logPost = laue.ll - Math.log(laue.members.length) + absLo + missLo + centric;
+    return { laue: laue.ll, absLo, missLo, centric, logPost };
+  });
+  const probs = softmax(scores.map((s) => s.logPost));
+
+  // --- indistinguishability classes
+  const sig = cands.map((c, ci) => {
+    let bits = '';
+    for (let h = -6; h <= 6; h++)
+      for (let kk = -6; kk <= 6; kk++)
+        for (let l = -6; l <= 6; l++) bits += candConds[ci].some((id) => forbids(condList[id], h, kk, l)) ? '1' : '0';
+    return `${laueKeys[ci]}|${c.setting.centrosymmetric}|${bits}`;
+  });
+  const classIdOfSig = new Map<string, number>();
+  const classMembers: number[][] = [];
+  sig.forEach((s, ci) => {
+    let id = classIdOfSig.get(s);
+    if (id === undefined) { id = classMembers.length; classIdOfSig.set(s, id); classMembers.push([]); }
+    classMembers[id].push(ci);
+  });
+  const classProb = classMembers.map((m) => m.reduce((a, ci) => a + probs[ci], 0));
+  const classOf = new Int32Array(cands.length);
+  classMembers.forEach((m, id) => m.forEach((ci) => (classOf[ci] = id)));
+  progress(0.85, 'report');
+
+  // --- reports
+  const condReports: ConditionReport[] = abs.conditions.map((c) => ({
+    text: c.condition.text,
+    zone: c.condition.zone.map((e) => [...e]),
+    coeffs: [...c.condition.coeffs],
+    modulus: c.condition.modulus,
+    n: c.n,
+    mean_i_over_sigma: Number.isFinite(c.meanIOverSigma) ? round(c.meanIOverSigma, 2) : null,
+    n_strong: c.nStrong,
+    probability_absent: round(c.probabilityAbsent, 4),
+    n_zone: c.nZone,
+    weak_violations: c.nWeakViolations,
+    forbidden_class_missing: c.forbiddenClassMissing,
+    log_odds: round(c.logOddsIntensities + c.logOddsMissing, 2),
+  }));
+  const all = allSettings();
+  const standardOf = new Map<number, SpaceGroupSetting>();
+  for (const s of all) if (!standardOf.has(s.number)) standardOf.set(s.number, s);
+
+  const order = cands.map((_, ci) => ci).sort((a, b) => probs[b] - probs[a] || classProb[classOf[b]] - classProb[classOf[a]] || cands[a].setting.index - cands[b].setting.index);
+  // class ids in order of first appearance
+  const classRank = new Map<number, number>();
+  for (const ci of order) if (!classRank.has(classOf[ci])) classRank.set(classOf[ci], classRank.size);
+
+  const candidates: CandidateReport[] = order.map((ci, rank) => {
+    const s = cands[ci].setting;
+    const std = standardOf.get(s.number)!;
+    const isStd = std.hm === s.hm;
+    const ids = [...new Set(candConds[ci])];
+    const against: CandidateReport['against'] = [];
+    const seen = new Set<number>();
+    for (const id of ids)
+      for (const row of abs.conditions[id].strongest) {
+        if (seen.has(row)) continue;
+        seen.add(row);
+        against.push({
+          h: table.h[row], k: table.k[row], l: table.l[row],
+          i_over_sigma: round(table.i[row] / table.sigma[row], 1), condition: condList[id].text,
+        });
+      }
+    against.sort((a, b) => b.i_over_sigma - a.i_over_sigma);
+    return {
+      number: s.number,
+      hm: s.hm,
+      hall: s.hall,
+      probability: round(probs[ci], 5),
+      class_id: classRank.get(classOf[ci])!,
+      class_probability: round(classProb[classOf[ci]], 5),
+      laue: s.laue,
+      crystal_system: s.crystalSystem,
+      centrosymmetric: s.centrosymmetric,
+      sohncke: s.sohncke,
+      standard: isStd,
+      change_of_basis: !isStd && rank === 0 ? findChangeToStandard(s, std) : null,
+      metric_deviation: { length_percent: round(cands[ci].fit.lengthPercent, 3), angle_deg: round(cands[ci].fit.angleDeg, 3) },
+      evidence: {
+        laue: round(scores[ci].laue, 2),
+        absences: round(scores[ci].absLo, 2),
+        missing_classes: round(scores[ci].missLo, 2),
+        centric: round(scores[ci].centric, 2),
+      },
+      conditions: ids.map((id) => {
+        const c = abs.conditions[id];
+        return {
+          text: condList[id].text,
+          n: c.n,
+          mean_i_over_sigma: Number.isFinite(c.meanIOverSigma) ? round(c.meanIOverSigma, 2) : null,
+          n_strong: c.nStrong,
+          probability_absent: round(c.probabilityAbsent, 4),
+          forbidden_class_missing: c.forbiddenClassMissing,
+        };
+      }),
+      against: against.slice(0, 5),
+    };
+  });
+  const classes: ClassReport[] = [...classRank.entries()]
+    .sort((a, b) => a[1] - b[1])
+    .map(([cid, id]) => {
+      const members = classMembers[cid].map((ci) => cands[ci].setting);
+      return { id, probability: round(classProb[cid], 5), members: members.map((m) => m.hm), separated_by: describeSeparation(members) };
+    });
+
+  // Laue classes report
+  const laueEntries = [...laueClasses.entries()];
+  const laueSym = softmax(laueEntries.map(([, e]) => e.ll));
+  const laueReports: LaueClassReport[] = laueEntries
+    .map(([key, e], j) => {
+      const s = cands[e.members[0]].setting;
+      const axes = union.filter((r) => inClass(key, r)).map((r) => agreements.find((a) => a.r === r)!.label);
+      return {
+        symbol: s.laue,
+        axes: axes.length ? axes.join(', ') : 'no rotation axes',
+        probability: round(e.members.reduce((a, ci) => a + probs[ci], 0), 5),
+        probability_from_symmetry: round(laueSym[j], 5),
+        log_likelihood: round(e.ll, 2),
+        settings: e.members.length,
+      };
+    })
+    .sort((a, b) => b.probability - a.probability);
+
+  // --- warnings about thin evidence
+  const top = order[0];
+  const topS = cands[top].setting;
+  let dMin = Infinity, dMax = 0, negatives = 0;
+  let s2max = 0;
+  for (let j = 0; j < n; j++) {
+    if (stol2[j] > s2max) s2max = stol2[j];
+    if (stol2[j] > 0) { const d = 0.5 / Math.sqrt(stol2[j]); if (d < dMin) dMin = d; if (d > dMax) dMax = d; }
+    if (table.i[j] < 0) negatives++;
+  }
+  const completeness = estimateCompleteness(table, candRot[top], cell.volume, s2max, topS);
+  if (completeness !== null && completeness < 0.7)
+    warnings.push(`completeness is about ${(100 * completeness).toFixed(0)} % in Laue class ${topS.laue}: missing reflections may hide violations of the conditions`);
+  if (n < 500) warnings.push(`only ${n} reflections: the statistics are thin and the probabilities should be read as rough`);
+  const negFrac = negatives / n;
+  if (negFrac > 0.3) warnings.push(`${(100 * negFrac).toFixed(0)} % of the intensities are negative: the data are weak or the background over-subtracted`);
+  const topIds = [...new Set(candConds[top])];
+  for (const id of topIds) {
+    const c = abs.conditions[id];
+    if (c.n > 0 && c.n < 5 && !c.forbiddenClassMissing)
+      warnings.push(`the condition ${condList[id].text} rests on only ${c.n} measured reflection${c.n > 1 ? 's' : ''}`);
+    if (c.n === 0 && !c.forbiddenClassMissing)
+      warnings.push(`the condition ${condList[id].text} is untested: no reflection of its zone was measured`);
+    if (c.nWeakViolations > 0 && c.nStrong <= Math.max(2, 0.05 * c.n))
+      warnings.push(`${c.nWeakViolations} reflection${c.nWeakViolations > 1 ? 's' : ''} forbidden by ${condList[id].text} show${c.nWeakViolations > 1 ? '' : 's'} 2-6 sigma: weak violations of the kind multiple diffraction produces`);
+  }
+  const missingTop = topIds.filter((id) => abs.conditions[id].forbiddenClassMissing);
+  const absencesRemoved = missingTop.length > 0 && missingTop.every((id) => abs.conditions[id].nZone >= 10);
+  if (absencesRemoved)
+    warnings.push(
+      'absences appear to have been removed from this file: no reflection at all was found where ' +
+        missingTop.map((id) => condList[id].text).join(', ') + ' forbids one, while the zones are well sampled. ' +
+        'That pattern was counted as evidence, with reduced weight, since it mirrors whoever filtered the file',
+    );
+  const topLaueKey = laueKeys[top];
+  for (const a of agreements) {
+    if (!inClass(topLaueKey, a.r) && a.pairs >= 20 && a.cc > 0.5)
+      warnings.push(`pseudo-symmetry: the ${a.label} outside the chosen Laue class still relates intensities with CC = ${a.cc.toFixed(2)} over ${a.pairs} pairs`);
+  }
+  if (stats.lTest.pairs >= 50 && stats.lTest.meanAbsL < 0.44)
+    warnings.push(`the L-test gives <|L|> = ${stats.lTest.meanAbsL.toFixed(3)} (0.5 untwinned, 0.375 perfect twin; Padilla & Yeates 2003): possible twinning, which also masks centric/acentric statistics`);
+  if (stats.n < 100) warnings.push(`only ${stats.n} general reflections for the centric/acentric test: treat it as weak evidence`);
+  const topClassP = classProb[classOf[top]];
+  if (topClassP < 0.5) warnings.push(`the data do not single out one group: the best class of indistinguishable candidates has probability ${topClassP.toFixed(2)}`);
+  progress(1, 'done');
+
+  return ok({
+    input: {
+      source: src,
+      reflections: n,
+      observations,
+      merged_from_unmerged: mergedFromUnmerged,
+      r_int: rInt === null ? null : round(rInt, 4),
+      sigmas_estimated: est.estimated,
+      negative_fraction: round(negFrac, 4),
+      d_min: round(dMin, 3),
+      d_max: round(dMax, 3),
+      completeness: completeness === null ? null : round(completeness, 3),
+    },
+    cell: cell.params(),
+    tolerance: tol,
+    laue: {
+      classes: laueReports,
+      rotations: agreements.map((a) => ({
+        rotation: rotationKeyText(a.r), label: a.label, pairs: a.pairs, cc: Number.isFinite(a.cc) ? round(a.cc, 3) : null,
+        cc_expected: round(a.ccExpected, 3), merged: a.merged, log_odds: round(a.logOdds, 2),
+      })),
+    },
+    statistics: {
+      sigma_scale: round(k, 3),
+      sigma_scale_source: kSource,
+      wilson_b: round(wilson.b, 2),
+      wilson_ln_scale: round(wilson.lnScale, 3),
+      general_reflections: stats.n,
+      mean_abs_e2_minus_1: round(stats.meanAbsE2Minus1, 3),
+      second_moment: round(stats.secondMoment, 3),
+      theory: THEORY,
+      nz: {
+        z: [...stats.nz.z], observed: stats.nz.observed.map((v) => round(v, 3)), acentric: stats.nz.acentric.map((v) => round(v, 3)),
+        centric: stats.nz.centric.map((v) => round(v, 3)), acentric_with_errors: stats.nz.acentricWithErrors.map((v) => round(v, 3)),
+        centric_with_errors: stats.nz.centricWithErrors.map((v) => round(v, 3)),
+      },
+      centric_fraction: round(stats.centricFraction, 3),
+      centric_log_odds: round(stats.centricLogOdds, 2),
+      probability_centric: round(stats.probabilityCentric, 4),
+      l_test: { pairs: stats.lTest.pairs, mean_abs_l: round(stats.lTest.meanAbsL, 3), mean_l2: round(stats.lTest.meanL2, 3) },
+      shells: Array.from({ length: shells.count }, (_, b) => ({
+        d_min: round(0.5 / Math.sqrt(shells.stol2Max[b]), 3), n: shells.n[b], mean_i: round(shells.meanI[b], 3),
+        mean_i_over_sigma: round(shells.meanIOverSigma[b], 2),
+      })),
+    },
+    conditions: condReports,
+    candidates,
+    classes,
+    absences_removed: absencesRemoved,
+    warnings,
+    caution: RANK_CAUTION,
+  });
+}
+
+function round(x: number, digits: number): number {
+  if (!Number.isFinite(x)) return x;
+  const f = 10 ** digits;
+  return Math.round(x * f) / f;
+}
+
+function fmtCell(c: CellParams): string {
+  return [c.a, c.b, c.c, c.alpha, c.beta, c.gamma].map((v) => +v.toFixed(3)).join(', ');
+}
+
+/**
+ * Completeness within the resolution sphere in the Laue class of `setting`: distinct
+ * reflections modulo the Laue group over the expected number of lattice points,
+ * (4/3) pi (1/d_min)^3 V / (|Laue group| * centring multiplicity).
+ */
+function estimateCompleteness(table: ReflectionTable, proper: number[][], volume: number, s2max: number, setting: SpaceGroupSetting): number | null {
+  if (!(s2max > 0)) return null;
+  const rots = proper.concat(proper.map((r) => r.map((v) => -v)));
+  const seen = new Set<number>();
+  const stride = table.n > 300_000 ? Math.ceil(table.n / 300_000) : 1;
+  for (let j = 0; j < table.n; j += stride) {
+    const h = table.h[j], k = table.k[j], l = table.l[j];
+    let best = Infinity;
+    for (const r of rots) {
+      const key = ((h * r[0] + k * r[3] + l * r[6] + 2048) * 4096 + (h * r[1] + k * r[4] + l * r[7] + 2048)) * 4096 + (h * r[2] + k * r[5] + l * r[8] + 2048);
+      if (key < best) best = key;
+    }
+    seen.add(best);
+  }
+  const dStarMax = 2 * Math.sqrt(s2max);
+  const lattice = ((4 / 3) * Math.PI * dStarMax ** 3 * volume) / (rots.length * (1 + setting.centringVectors.length));
+  // subsampling counts distinct orbits among the sampled rows only; scale back
+  const unique = seen.size * stride;
+  return lattice > 0 ? Math.min(1, unique / lattice) : null;
+}
