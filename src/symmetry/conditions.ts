@@ -1,3 +1,4 @@
+import { fail, ok, type Result } from '../core';
 import { DEN, isIdentityRotation, mod, type SymOp } from './ops';
 
 /**
@@ -72,28 +73,38 @@ function linear(coefs: number[], letters: string[]): string {
   return s || '0';
 }
 
-/** Integer echelon basis of the row space orthogonal to a direction v (two rows). */
+/** One index of a zone label: `h`, `-h`, `0` stand alone; `(2h)`, `(-h-k)` get parentheses. */
+function wrapTerm(t: string): string {
+  return /^-?[hkl]$|^0$/.test(t) ? t : `(${t})`;
+}
+
+/**
+ * The Hermite normal form basis (two rows, echelon, positive pivots, entries above the second
+ * pivot reduced) of the integer rows orthogonal to a primitive direction v: unique, so equal
+ * zones get equal rows.
+ */
 function complementRows(v: V3): V3[] {
-  // candidate rows: small integer vectors orthogonal to v; take two whose cross product is +-v
   const cands: V3[] = [];
-  for (let a = -2; a <= 2; a++)
-    for (let b = -2; b <= 2; b++)
-      for (let c = -2; c <= 2; c++) {
+  const B = 3;
+  for (let a = -B; a <= B; a++)
+    for (let b = -B; b <= B; b++)
+      for (let c = -B; c <= B; c++) {
         const e: V3 = [a, b, c];
-        if (!isZero(e) && dot(e, v) === 0) cands.push(primitive(e));
+        if (!isZero(e) && dot(e, v) === 0) cands.push(e);
       }
-  // prefer rows with leading unit entries, in echelon order
-  const score = (e: V3) => {
-    const lead = e.findIndex((x) => x !== 0);
-    return lead * 100 + Math.abs(e[0]) + Math.abs(e[1]) + Math.abs(e[2]);
-  };
-  cands.sort((x, y) => score(x) - score(y) || y[0] - x[0] || y[1] - x[1] || y[2] - x[2]);
-  for (let i = 0; i < cands.length; i++)
-    for (let j = i + 1; j < cands.length; j++) {
-      const c = cross(cands[i], cands[j]);
-      if ((c[0] === v[0] && c[1] === v[1] && c[2] === v[2]) || (c[0] === -v[0] && c[1] === -v[1] && c[2] === -v[2]))
-        return [cands[i], cands[j]];
+  const pivot = (e: V3) => e.findIndex((x) => x !== 0);
+  for (const e1 of cands) {
+    const p1 = pivot(e1);
+    if (e1[p1] <= 0) continue;
+    for (const e2 of cands) {
+      const p2 = pivot(e2);
+      if (p2 <= p1 || e2[p2] <= 0 || e1[p2] < 0 || e1[p2] >= e2[p2]) continue;
+      const c = cross(e1, e2);
+      const same = c[0] === v[0] && c[1] === v[1] && c[2] === v[2];
+      const opposite = c[0] === -v[0] && c[1] === -v[1] && c[2] === -v[2];
+      if (same || opposite) return [e1, e2];
     }
+  }
   throw new Error(`complementRows: no small basis orthogonal to ${v}`);
 }
 
@@ -149,14 +160,14 @@ function planeZone(n: V3): Zone {
   const params = free.map((p) => LETTERS[p]);
   // label: free positions keep their letter, the dependent one is expressed through them
   const dep = linear(free.map((p) => -n[p] / n[j] || 0), params);
-  const parts = [0, 1, 2].map((p) => (p === j ? (/[+]|.-/.test(dep) ? `(${dep})` : dep) : LETTERS[p]));
+  const parts = [0, 1, 2].map((p) => (p === j ? wrapTerm(dep) : LETTERS[p]));
   return { dim: 2, basis, rows: [n], label: parts.join(''), params };
 }
 
 function lineZone(v: V3): Zone {
   const first = v.findIndex((x) => x !== 0);
   const letter = LETTERS[first];
-  const label = v.map((c) => (c === 0 ? '0' : term(c, letter))).join('');
+  const label = v.map((c) => (c === 0 ? '0' : wrapTerm(term(c, letter)))).join('');
   return { dim: 1, basis: [v], rows: complementRows(v), label, params: [letter] };
 }
 
@@ -200,14 +211,20 @@ function computeCondition(op: SymOp): Condition | null {
   const zone = zoneOfRotation(op.r);
   if (!zone) return null;
   // values of h.t (numerators over DEN) on the zone basis
-  let m = DEN;
-  let vals = zone.basis.map((b) => mod(dot(b, op.t), DEN));
-  let g = vals.reduce((a, v) => gcd(a, v), m);
+  return canonicalCondition(zone, zone.basis.map((b) => dot(b, op.t)), DEN);
+}
+
+/**
+ * The condition "sum_q vals[q] a_q = 0 mod m" on the zone points sum_q a_q basis[q], in
+ * canonical form, or null when every point of the zone satisfies it.
+ */
+function canonicalCondition(zone: Zone, values: number[], modulus: number): Condition | null {
+  let vals = values.map((v) => mod(v, modulus));
   if (vals.every((v) => v === 0)) return null;
-  m = m / g;
+  const g = vals.reduce((a, v) => gcd(a, v), modulus);
+  const m = modulus / g;
   vals = vals.map((v) => v / g);
-  g = 0;
-  // the kernel of v -> u v (u a unit mod m) is the same set: search the simplest coefficients
+  // u v (u a unit mod m) has the same kernel, so the same absent set: take the simplest coefficients
   const targets = units(m).map((u) => vals.map((v) => mod(u * v, m)).join(','));
   let coeffs: V3 | undefined;
   for (const c of CANDIDATES) {
@@ -217,7 +234,7 @@ function computeCondition(op: SymOp): Condition | null {
       break;
     }
   }
-  if (!coeffs) coeffs = [op.t[0] / (DEN / m), op.t[1] / (DEN / m), op.t[2] / (DEN / m)].map((x) => mod(x, m)) as V3;
+  if (!coeffs) throw new Error(`canonicalCondition: no small coefficients for ${vals} mod ${m} on zone ${zone.label}`);
   const expr = linear(zone.basis.map((b) => dot(coeffs!, b)), zone.params);
   return {
     text: `${zone.label}: ${expr} = ${m}n`,
@@ -238,7 +255,10 @@ export function conditionZoneDim(c: Condition): number {
 
 /**
  * Every distinct condition the operations impose, integral first, then zonal, then serial
- * (the order of International Tables Vol. A), each group in order of first appearance.
+ * (the order of International Tables Vol. A); zones in order of first appearance, conditions
+ * of one zone by coefficients (h first). A condition implied by the others of the same zone
+ * (00l: l = 2n beside 00l: l = 4n) is left out, as in International Tables; the absent set
+ * is unchanged by that.
  */
 export function deriveConditions(ops: readonly SymOp[]): Condition[] {
   const byKey = new Map<string, Condition>();
@@ -250,10 +270,81 @@ export function deriveConditions(ops: readonly SymOp[]): Condition[] {
     if (!byKey.has(k)) byKey.set(k, c);
   }
   const list = [...byKey.values()];
-  return list
-    .map((c, i) => ({ c, i }))
-    .sort((a, b) => a.c.zone.length - b.c.zone.length || a.i - b.i)
-    .map((x) => x.c);
+  const zoneOrder = new Map<string, number>();
+  for (const c of list) {
+    const z = zoneKey(c);
+    if (!zoneOrder.has(z)) zoneOrder.set(z, zoneOrder.size);
+  }
+  const kept = dropRedundant(list);
+  return kept.sort(
+    (a, b) =>
+      a.zone.length - b.zone.length ||
+      zoneOrder.get(zoneKey(a))! - zoneOrder.get(zoneKey(b))! ||
+      b.coeffs[0] - a.coeffs[0] || b.coeffs[1] - a.coeffs[1] || b.coeffs[2] - a.coeffs[2],
+  );
+}
+
+function zoneKey(c: Condition): string {
+  return c.zone.map((r) => r.join(',')).join(';');
+}
+
+/**
+ * Within each zonal or serial zone, drop conditions whose absent set lies inside the union of the others'
+ * (00l: l = 2n beside 00l: l = 4n; 0kl: k+l = 2n beside 0kl: k = 2n and 0kl: l = 2n), the
+ * ones with more terms first. Tested over one period of the zone's points.
+ */
+function dropRedundant(list: Condition[]): Condition[] {
+  const byZone = new Map<string, Condition[]>();
+  for (const c of list) {
+    const z = zoneKey(c);
+    const g = byZone.get(z) ?? [];
+    g.push(c);
+    byZone.set(z, g);
+  }
+  const removed = new Set<Condition>();
+  for (const group of byZone.values()) {
+    // integral conditions stay as the lattice gives them (F: h+k, h+l, k+l = 2n, as ITA prints)
+    if (group.length < 2 || group[0].zone.length === 0) continue;
+    const basis = zoneFromRows(group[0].zone);
+    let period = 1;
+    for (const c of group) period = lcm(period, c.modulus);
+    const points = periodPoints(basis, period);
+    const nz = (c: Condition) => c.coeffs.filter((x) => x !== 0).length;
+    const order = [...group].sort((a, b) => nz(b) - nz(a) || a.modulus - b.modulus);
+    for (const a of order) {
+      const others = group.filter((b) => b !== a && !removed.has(b));
+      const covered = points.every((p) => dot(a.coeffs, p) % a.modulus === 0 || others.some((b) => dot(b.coeffs, p) % b.modulus !== 0));
+      if (covered) removed.add(a);
+    }
+  }
+  return list.filter((c) => !removed.has(c));
+}
+
+function lcm(a: number, b: number): number {
+  return (a / gcd(a, b)) * b;
+}
+
+/** The zone points sum_q a_q basis[q] with 0 <= a_q < period. */
+function periodPoints(basis: V3[], period: number): V3[] {
+  const out: V3[] = [];
+  const d = basis.length;
+  const idx = new Array<number>(d).fill(0);
+  for (;;) {
+    const p: V3 = [0, 0, 0];
+    for (let q = 0; q < d; q++) for (let i = 0; i < 3; i++) p[i] += idx[q] * basis[q][i];
+    out.push(p);
+    let q = 0;
+    while (q < d && ++idx[q] === period) idx[q++] = 0;
+    if (q === d) break;
+  }
+  return out;
+}
+
+/** Basis of the zone lattice {h : e.h = 0 for every row e}. */
+function zoneFromRows(rows: number[][]): V3[] {
+  if (rows.length === 0) return [[1, 0, 0], [0, 1, 0], [0, 0, 1]];
+  if (rows.length === 1) return planeZone(primitive(rows[0] as V3)).basis;
+  return [primitive(cross(rows[0] as V3, rows[1] as V3))];
 }
 
 /** True when reflection (h,k,l) lies in the condition's zone and breaks it. */
@@ -280,4 +371,71 @@ export function combinedConditionText(conditions: readonly Condition[]): string[
     groups.set(key, g);
   }
   return [...groups.values()].map((g) => `${g.zone}: ${g.exprs.join(', ')} = ${g.modulus}n`);
+}
+
+/**
+ * Read conditions written in the notation of International Tables ("h0l: l = 2n",
+ * "hkl: h+k, h+l, k+l = 2n", "hhl: 2h+l = 4n", "h-hl: h+l = 3n", "(-2k)kl: l = 2n") into
+ * exact, canonical Condition objects (one per expression). Fails with the column of the
+ * problem.
+ */
+export function parseConditionText(text: string): Result<Condition[]> {
+  const where = (col: number) => ({ file: 'condition', column: col + 1 });
+  const colon = text.indexOf(':');
+  if (colon < 0) return fail(`condition '${text}' needs a zone before ':', e.g. 'h0l: l = 2n'`, where(0));
+  const label = text.slice(0, colon).trim();
+  const tokens = label.match(/\([^()]*\)|-?[1-9]\d*[hkl]|-?[hkl]|0/g) ?? [];
+  if (tokens.join('') !== label.replace(/\s+/g, '') || tokens.length !== 3)
+    return fail(`zone '${label}' in '${text}' is not three indices such as hkl, h0l, hhl, h-hl, 00l`, where(0));
+  const forms: Map<string, number>[] = [];
+  for (const t of tokens) {
+    const f = parseLinear(t.replace(/^\(|\)$/g, ''));
+    if (!f) return fail(`index '${t}' of zone '${label}' is not a linear expression in h, k, l`, where(0));
+    forms.push(f);
+  }
+  const letters = [...new Set(forms.flatMap((f) => [...f.keys()]))];
+  const basis: V3[] = letters.map((p) => forms.map((f) => f.get(p) ?? 0) as V3);
+  const rest = text.slice(colon + 1);
+  const m = /^\s*(.+?)\s*=\s*(\d+)\s*n\s*$/.exec(rest);
+  if (!m) return fail(`expected 'expression = Nn' after the zone in '${text}'`, where(colon + 1));
+  const modulus = Number(m[2]);
+  if (modulus < 2) return fail(`modulus ${modulus} in '${text}' must be at least 2`, where(colon + 1));
+  let zone: Zone;
+  if (letters.length === 3) zone = computeZone([1, 0, 0, 0, 1, 0, 0, 0, 1])!;
+  else if (letters.length === 2) {
+    const n = cross(basis[0], basis[1]);
+    if (isZero(n)) return fail(`zone '${label}' is degenerate`, where(0));
+    zone = planeZone(primitive(n));
+  } else if (letters.length === 1) zone = lineZone(primitive(basis[0]));
+  else return fail(`zone '${label}' has no free index`, where(0));
+  const out: Condition[] = [];
+  for (const exprText of m[1].split(',')) {
+    const e = parseLinear(exprText.trim());
+    if (!e || [...e.keys()].some((p) => !letters.includes(p)))
+      return fail(`'${exprText.trim()}' in '${text}' is not a linear expression in the zone's indices (${letters.join(', ')})`, where(colon + 1));
+    // integer coefficients c on hkl with c.b_p = e_p for the label's basis vectors
+    const want = letters.map((p) => e.get(p) ?? 0);
+    const c = CANDIDATES.find((cand) => basis.every((b, q) => dot(cand, b) === want[q]));
+    if (!c) return fail(`cannot express '${exprText.trim()}' on zone '${label}'`, where(colon + 1));
+    const cond = canonicalCondition(zone, zone.basis.map((b) => dot(c, b)), modulus);
+    if (cond) out.push(cond);
+  }
+  return ok(out);
+}
+
+/** `h`, `-2h+k`, `h-k`, `2h+l` -> coefficient per letter; undefined if malformed. */
+function parseLinear(s: string): Map<string, number> | undefined {
+  const terms = s.replace(/\s+/g, '').match(/[+-]?\d*[hkl]|[+-]?\d+/g);
+  if (!terms || terms.join('') !== s.replace(/\s+/g, '')) return undefined;
+  const f = new Map<string, number>();
+  for (const t of terms) {
+    const mm = /^([+-]?)(\d*)([hkl]?)$/.exec(t)!;
+    const coef = (mm[1] === '-' ? -1 : 1) * (mm[2] ? Number(mm[2]) : 1);
+    if (!mm[3]) {
+      if (coef !== 0) return undefined; // a constant other than 0 is no zone index
+      continue;
+    }
+    f.set(mm[3], (f.get(mm[3]) ?? 0) + coef);
+  }
+  return f;
 }

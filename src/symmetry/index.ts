@@ -40,6 +40,7 @@ export {
   conditionOfOp,
   conditionKey,
   conditionZoneDim,
+  parseConditionText,
   deriveConditions,
   breaksCondition,
   combinedConditionText,

@@ -195,6 +195,18 @@ export function shortSymbol(hm: string): string {
   return ext ? `${s}:${ext}` : s;
 }
 
+/**
+ * Since the 2002 edition, International Tables write the double glide plane e in five symbols
+ * (Vol. A, 1.2.3 / Table 4.3.2.1); the table's standard settings carry the older letters.
+ */
+const E_GLIDE_SYMBOLS: Record<string, string> = {
+  'A b m 2': 'A e m 2',
+  'A b a 2': 'A e a 2',
+  'C m c a': 'C m c e',
+  'C m m a': 'C m m e',
+  'C c c a': 'C c c e',
+};
+
 function nameIndex() {
   if (NAMES) return NAMES;
   const exact = new Map<string, Setting>();
@@ -217,6 +229,11 @@ function nameIndex() {
     const base = s.hm.split(':')[0];
     add(squeeze(base), s);
     add(squeeze(shortSymbol(base)), s);
+    const e = E_GLIDE_SYMBOLS[base];
+    if (e && !s.qualifier) {
+      add(squeeze(e) + (s.ext ? ':' + s.ext : ''), s);
+      add(squeeze(e), s);
+    }
     if (s.ext === 'H') {
       add(squeeze(base.replace(/^R/, 'H')), s);
       add(squeeze(shortSymbol(base).replace(/^R/, 'H')), s);
