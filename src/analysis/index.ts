@@ -9,7 +9,7 @@ export {
 } from './rank-space-groups';
 export { DEFAULT_TOLERANCE, metricFit, candidateSettings, type MetricTolerance, type MetricFit } from './candidates';
 export { buildShells, expectedIntensity, expectedIntensityColumn, wilsonPlot, type ResolutionShells, type WilsonPlot } from './normalisation';
-export { intensityStatistics, nzAcentric, nzCentric, THEORY, NZ_GRID, type IntensityStatistics } from './intensity-statistics';
+export { intensityStatistics, nzAcentric, nzCentric, THEORY, NZ_GRID, CENTRIC_LOG_ODDS_CAP, type IntensityStatistics } from './intensity-statistics';
 export { mergeIdentical, type MergeResult } from './merge';
 export { reflectionLogOdds, absenceEvidence, forbids, type ConditionLike, type ConditionEvidence, type AbsenceEvidence } from './absence-evidence';
 export { rotationAgreements, type RotationAgreement } from './laue-evidence';

@@ -61,6 +61,14 @@ function nzCentricNoisy(z: number, s: number): number {
   return p;
 }
 
+/**
+ * Largest evidence (nats) intensity statistics may give for or against a centre of symmetry:
+ * odds of 20:1. Pseudo-centrosymmetric structures, heavy atoms on special positions and
+ * twinning all imitate the other distribution, so these statistics never decide alone
+ * (a judgement, in line with common practice).
+ */
+export const CENTRIC_LOG_ODDS_CAP = 3;
+
 export const NZ_GRID = [0.05, 0.1, 0.15, 0.2, 0.25, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0] as const;
 
 export interface IntensityStatistics {
@@ -155,10 +163,14 @@ export function intensityStatistics(
     const mm = clamp(secondMoment, 0, 6);
     const llrM = ((mm - 2) * (mm - 2) - (mm - 3) * (mm - 3)) / (2 * t2);
     // The two measure overlapping features of the same distribution: temper their sum.
-    centricLogOdds = clamp(0.7 * (llrNz + llrM), -12, 12);
+    centricLogOdds = clamp(0.7 * (llrNz + llrM), -CENTRIC_LOG_ODDS_CAP, CENTRIC_LOG_ODDS_CAP);
   }
 
   const lTest = lStatistic(table, use, index);
+  // Local-pair statistics away from 1/2 mean the intensities are not Wilson-distributed
+  // (twinning below, translational pseudo-symmetry or pseudo-centring above): the
+  // centric/acentric curves then mislead, so their evidence is halved.
+  if (lTest.pairs >= 100 && Math.abs(lTest.meanAbsL - 0.5) > 0.06) centricLogOdds *= 0.5;
   return {
     n,
     meanAbsE2Minus1: n ? sAbs / n : NaN,

@@ -604,6 +604,17 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   if (stats.lTest.pairs >= 50 && stats.lTest.meanAbsL < 0.44)
     warnings.push(`the L-test gives <|L|> = ${stats.lTest.meanAbsL.toFixed(3)} (0.5 untwinned, 0.375 perfect twin; Padilla & Yeates 2003): possible twinning, which also masks centric/acentric statistics`);
   if (stats.n < 100) warnings.push(`only ${stats.n} general reflections for the centric/acentric test: treat it as weak evidence`);
+  // The best class and the next differ only by a centre of symmetry: say which way and how weakly.
+  const second = order.find((ci) => classOf[ci] !== classOf[top]);
+  if (second !== undefined && laueKeys[second] === laueKeys[top] && cands[second].setting.centrosymmetric !== topS.centrosymmetric &&
+      sig[second].split('|')[2] === sig[top].split('|')[2]) {
+    const other = cands[second].setting;
+    warnings.push(
+      `${topS.hm} and ${other.hm} have the same Laue class and the same absences; only the centre of symmetry separates them, ` +
+        `and the intensity statistics (probability centrosymmetric ${stats.probabilityCentric.toFixed(2)}) are a weak guide: ` +
+        'pseudo-centrosymmetric structures and heavy atoms imitate centric statistics. Try both in structure solution',
+    );
+  }
   const topClassP = classProb[classOf[top]];
   if (topClassP < 0.5) warnings.push(`the data do not single out one group: the best class of indistinguishable candidates has probability ${topClassP.toFixed(2)}`);
   progress(1, 'done');
