@@ -1,0 +1,78 @@
+/// <reference lib="webworker" />
+import { isGzip, readReflections } from '../io';
+import { runAnalysis } from './analysis-bridge';
+import type { FromWorker, ToWorker } from './worker-protocol';
+
+/**
+ * Reading, unpacking and analysis off the page's thread, so the page stays
+ * responsive with a million reflections. The columns travel back as
+ * transferred buffers (no copy); the table is posted before the analysis so
+ * the first picture does not wait for the ranking.
+ */
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+
+function post(msg: FromWorker, transfer: Transferable[] = []): void {
+  scope.postMessage(msg, transfer);
+}
+
+async function gunzip(bytes: Uint8Array): Promise<Uint8Array> {
+  const stream = new Blob([bytes as BlobPart]).stream().pipeThrough(new DecompressionStream('gzip'));
+  return new Uint8Array(await new Response(stream).arrayBuffer());
+}
+
+async function fetchBytes(id: number, url: string): Promise<Uint8Array> {
+  const res = await fetch(url, { credentials: 'same-origin' });
+  if (!res.ok) throw new Error(`could not fetch ${url}: the server answered ${res.status} ${res.statusText}`);
+  const total = Number(res.headers.get('content-length') ?? 0);
+  if (!res.body) return new Uint8Array(await res.arrayBuffer());
+  const reader = res.body.getReader();
+  const parts: Uint8Array[] = [];
+  let got = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    parts.push(value);
+    got += value.length;
+    if (total > 0) post({ type: 'progress', id, stage: 'reading', fraction: Math.min(1, got / total) });
+  }
+  const out = new Uint8Array(got);
+  let o = 0;
+  for (const p of parts) { out.set(p, o); o += p.length; }
+  return out;
+}
+
+scope.onmessage = async (e: MessageEvent<ToWorker>) => {
+  const msg = e.data;
+  if (msg.type !== 'load') return;
+  const { id, name } = msg;
+  try {
+    post({ type: 'progress', id, stage: 'reading', fraction: 0 });
+    let bytes = msg.url !== undefined ? await fetchBytes(id, msg.url) : new Uint8Array(msg.bytes!);
+    if (isGzip(bytes)) {
+      post({ type: 'progress', id, stage: 'unpacking', fraction: 0 });
+      try {
+        bytes = await gunzip(bytes);
+      } catch (err) {
+        post({ type: 'error', id, message: `${name}: the file looks gzip-compressed but does not unpack (${err instanceof Error ? err.message : String(err)}); it may be truncated` });
+        return;
+      }
+    }
+    post({ type: 'progress', id, stage: 'parsing', fraction: 0 });
+    const r = readReflections(bytes, { source: name.replace(/\.gz$/i, '') });
+    if (!r.ok) { post({ type: 'error', id, message: r.error.describe() }); return; }
+    const t = r.value;
+    if (t.n === 0) {
+      const why = t.meta.rejectedCount > 0 ? `: all ${t.meta.rejectedCount} rows were rejected (${Object.keys(t.meta.rejectedByReason).join('; ')})` : '';
+      post({ type: 'error', id, message: `${name}: no usable reflections${why}` });
+      return;
+    }
+    // Copies so the transferred buffers are exactly the columns (subarrays may share a larger buffer).
+    const cols = { h: t.h.slice(), k: t.k.slice(), l: t.l.slice(), i: t.i.slice(), sigma: t.sigma.slice() };
+    post({ type: 'table', id, n: t.n, meta: t.meta, ...cols }, [cols.h.buffer, cols.k.buffer, cols.l.buffer, cols.i.buffer, cols.sigma.buffer]);
+    post({ type: 'progress', id, stage: 'analysing', fraction: 0 });
+    const analysis = runAnalysis(t, (f) => post({ type: 'progress', id, stage: 'analysing', fraction: f }));
+    post({ type: 'analysis', id, analysis });
+  } catch (err) {
+    post({ type: 'error', id, message: `${name}: ${err instanceof Error ? err.message : String(err)}`, internal: true });
+  }
+};
