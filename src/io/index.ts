@@ -9,3 +9,4 @@ export type { ReadReflectionsOptions } from './read-options';
 export { isGzip } from './gzip';
 export { parseByteNumber } from './byte-number';
 export { summarizeReflections, countUniqueHkl, type ReflectionSummary } from './reflection-summary';
+export { writeReflectionCif, formatFloat32, type WriteReflectionCifOptions } from './reflection-cif-writer';

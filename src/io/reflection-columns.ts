@@ -125,6 +125,7 @@ export function planTextColumns(names: readonly string[]): ColumnPlan | string {
       if (role !== undefined) amplitude = true;
     }
     if (role === undefined) continue;
+    if (amplitude && intensity) return 'the columns mix intensities (I, sigI) and amplitudes (F, sigF); name one pair';
     if (seen.has(role)) return `columns '${seen.get(role)}' and '${names[j]}' name the same quantity`;
     seen.set(role, names[j]);
     roles[j] = role;
