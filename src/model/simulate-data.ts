@@ -54,7 +54,7 @@ export interface SimulationResult {
 }
 
 /** Store at 0.01 so that what a file writer prints and a reader reads back is the same number. */
-const round2 = (x: number) => Math.round(x * 100) / 100;
+const round2 = (x: number) => Math.round(x * 100) / 100 + 0; // + 0 turns -0 into 0
 
 export function simulateData(model: CrystalModel, o: SimulationOptions): Result<SimulationResult> {
   const { dmin, seed } = o;
@@ -129,13 +129,15 @@ export function simulateData(model: CrystalModel, o: SimulationOptions): Result<
   return ok({ table: b.finish(meta), scale, absent: nAbsent, violations });
 }
 
-/** True when h,k,l is the largest (lexicographically) of its equivalents under the rotations and Friedel's law. */
+/** True when h,k,l is the largest (lexicographically) of its equivalents in the hemisphere under the rotations and Friedel's law. */
 function isLaueRepresentative(rots: readonly ArrayLike<number>[], h: number, k: number, l: number): boolean {
   for (const R of rots) {
     const a = h * R[0] + k * R[3] + l * R[6], b = h * R[1] + k * R[4] + l * R[7], c = h * R[2] + k * R[5] + l * R[8];
     for (const s of [1, -1]) {
       const x = s * a, y = s * b, z = s * c;
-      if (x > h || (x === h && (y > k || (y === k && z > l)))) return false;
+      // only members of the same hemisphere compete (the orbit's maximum may lie outside it)
+      const inHemisphere = z > 0 || (z === 0 && (y > 0 || (y === 0 && x > 0)));
+      if (inHemisphere && (x > h || (x === h && (y > k || (y === k && z > l))))) return false;
     }
   }
   return true;
