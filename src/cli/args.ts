@@ -42,6 +42,7 @@ export function usageError(message: string, command?: string): InputError {
 export const COMMON_OPTIONS: readonly OptionSpec[] = [
   { name: 'json', value: false, help: 'print one JSON document on stdout and nothing else there' },
   { name: 'help', value: false, help: 'show this help' },
+  { name: 'profile', value: true, placeholder: 'FILE', help: 'lab profile (JSON) whose house rules apply; see public/profiles/' },
 ];
 
 export function parseArgs(spec: CommandSpec, argv: readonly string[]): ParsedArgs {

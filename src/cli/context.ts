@@ -9,6 +9,8 @@ export interface CliContext {
   readonly interactive: boolean;
   /** Working directory for relative paths. */
   readonly cwd: string;
+  /** Lab profile given with --profile (set by the dispatcher); read it with activeProfile(ctx). */
+  readonly profile?: import('../profile').LabProfile;
 }
 
 export interface Command {

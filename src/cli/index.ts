@@ -2,3 +2,4 @@
 export { runCli, nodeContext } from './main';
 export type { CliContext, Command } from './context';
 export * from './args';
+export { activeProfile, loadProfileFile } from './profile-option';

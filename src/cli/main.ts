@@ -1,6 +1,7 @@
 import { isInputError } from '../core';
 import type { CliContext, Command } from './context';
 import { usageError } from './args';
+import { withProfile } from './profile-option';
 
 /**
  * The `lacuna` command-line tool. Each command lives in its own module under
@@ -49,7 +50,7 @@ export async function runCli(argv: readonly string[], ctx: CliContext): Promise<
     const entry = Object.prototype.hasOwnProperty.call(COMMANDS, name) ? COMMANDS[name] : undefined;
     if (!entry) throw usageError(`unknown command '${name}'`);
     const command = await entry.load();
-    return await command.run(rest, ctx);
+    return await command.run(rest, withProfile(rest, ctx));
   } catch (e) {
     if (isInputError(e)) {
       ctx.err(`error: ${e.describe()}\n`);

@@ -369,24 +369,42 @@ function conventional(g: ArrayLike<number>, group: Mat[], rule: MonoclinicRule):
   }
 }
 
-const FLIPS: Record<'all' | 'mono' | 'hex' | 'none', Mat[]> = {
-  all: [IDENTITY, [-1, 0, 0, 0, -1, 0, 0, 0, 1], [-1, 0, 0, 0, 1, 0, 0, 0, -1], [1, 0, 0, 0, -1, 0, 0, 0, -1]],
-  mono: [IDENTITY, [-1, 0, 0, 0, 1, 0, 0, 0, -1]],
-  hex: [IDENTITY, [-1, 0, 0, 0, -1, 0, 0, 0, 1]],
-  none: [IDENTITY],
-};
+/** The 24 proper signed permutation matrices (rotations of a rectangular box onto itself). */
+const BOX_ROTATIONS: Mat[] = (() => {
+  const out: Mat[] = [];
+  const perms = [[0, 1, 2], [0, 2, 1], [1, 0, 2], [1, 2, 0], [2, 0, 1], [2, 1, 0]];
+  for (const p of perms)
+    for (let signs = 0; signs < 8; signs++) {
+      const m = new Array<number>(9).fill(0);
+      for (let i = 0; i < 3; i++) m[3 * p[i] + i] = signs & (1 << i) ? -1 : 1;
+      const d = m[0] * (m[4] * m[8] - m[5] * m[7]) - m[1] * (m[3] * m[8] - m[5] * m[6]) + m[2] * (m[3] * m[7] - m[4] * m[6]);
+      if (d === 1) out.push(m);
+    }
+  return out;
+})();
+
+/** Which re-labellings of the axes keep a conventional cell conventional. */
+function keepsConvention(type: BravaisType, m: Mat): boolean {
+  if (type === 'aP' || type === 'hR') return m.every((x, j) => x === IDENTITY[j]);
+  if (type === 'hP') return m[8] === 1 && m[0] === m[4] && m[0] !== 0; // 180 degrees about c keeps gamma = 120
+  if (type[0] === 'm') return m[4] === 1 && Math.abs(m[0]) === 1; // keep b; (-a, b, -c) keeps beta
+  if (type === 'tP' || type === 'tI' || type === 'oC') return Math.abs(m[8]) === 1; // keep the unique axis / centred face
+  return true; // oP oI oF cP cI cF: any axis order
+}
 
 /**
- * Among the sign choices that leave the conventional cell unchanged (a twofold
- * rotation of the axes), the one whose transformation from the input basis is
- * closest to the identity, so that `a,b,c` stays `a,b,c` where the metric allows.
+ * Among the re-labellings of the axes that keep the conventional cell
+ * conventional (International Tables allows any axis order for oP, oI, oF, and
+ * the signs that are twofold rotations), the one whose transformation from the
+ * input basis is closest to the identity, so that a cell already in a
+ * conventional setting keeps its axes. Ties keep the constructed order
+ * (a <= b <= c for orthorhombic, common practice).
  */
 function nearestToInput(pRed: Mat, pConv: Mat, type: BravaisType): Mat {
-  // only flips that keep every angle: gamma = 120 must stay 120, beta >= 90 stays
-  const flips = type === 'hR' || type === 'aP' ? FLIPS.none : type === 'hP' ? FLIPS.hex : type[0] === 'm' ? FLIPS.mono : FLIPS.all;
   let best = mulMat(pRed, pConv);
-  for (const f of flips.slice(1)) {
-    const t = mulMat(pRed, mulMat(pConv, f));
+  for (const m of BOX_ROTATIONS) {
+    if (!keepsConvention(type, m)) continue;
+    const t = mulMat(pRed, mulMat(pConv, m));
     if (trace(t) > trace(best)) best = t;
   }
   return best;

@@ -134,7 +134,9 @@ export function cellFromMetric(g: ArrayLike<number>): CellParams {
   const c = Math.sqrt(g[8]);
   const d = 180 / Math.PI;
   const ang = (x: number) => Math.acos(Math.max(-1, Math.min(1, x))) * d;
-  return { a, b, c, alpha: ang(g[5] / (b * c)), beta: ang(g[2] / (a * c)), gamma: ang(g[1] / (a * b)) };
+  // 12 significant digits: far below any measured precision, and it keeps 12.94 from printing as 12.939999999999994
+  const r = (x: number) => Number(x.toPrecision(12));
+  return { a: r(a), b: r(b), c: r(c), alpha: r(ang(g[5] / (b * c))), beta: r(ang(g[2] / (a * c))), gamma: r(ang(g[1] / (a * b))) };
 }
 
 /** G' = P^T G P for a real matrix P (row-major). */
