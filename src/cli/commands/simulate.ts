@@ -1,6 +1,7 @@
-import { existsSync, realpathSync, renameSync, unlinkSync, writeFileSync } from 'node:fs';
-import { basename, dirname, resolve } from 'node:path';
-import { InputError, type ReflectionTable } from '../../core';
+import { basename, resolve } from 'node:path';
+import { InputError } from '../../core';
+import { writeReflectionCif } from '../../io';
+import { checkOutputPath, writeFileAtomically } from '../write-output';
 import type { Command } from '../context';
 import { formatHelp, numberOption, parseArgs, usageError, type CommandSpec } from '../args';
 import { loadModel, MODEL_BLOCK_OPTION } from '../load-model';
@@ -60,7 +61,7 @@ export const command: Command = {
     const modelPath = args.positional[0];
     const outFull = resolve(ctx.cwd, out);
     const modelFull = resolve(ctx.cwd, modelPath);
-    if (sameFile(outFull, modelFull)) throw usageError(`--out ${out} is the model file; choose another name (the input is never overwritten)`, 'simulate');
+    checkOutputPath(outFull, out, [modelFull]);
     const model = loadModel(modelPath, args, ctx);
     const options: SimulationOptions = {
       dmin, seed,
@@ -69,19 +70,19 @@ export const command: Command = {
       violations: numberOption(args, 'violations', 'simulate'),
       multiplicity: numberOption(args, 'multiplicity', 'simulate'),
       wavelength: numberOption(args, 'wavelength', 'simulate'),
-      source: out,
+      source: `lacuna simulate from the model ${basename(modelPath)}`,
       ...parseNoise(args.values.get('noise') ?? ''),
     };
     const r = simulateData(model, options);
     if (!r.ok) throw new InputError(r.error.message, { file: modelPath }, r.error.hint);
     const { table, scale, absent, violations } = r.value;
     const header = [
-      `Simulated by 'lacuna simulate' from the model ${basename(modelPath)}: invented data, not a measurement.`,
+      'Invented data computed from a trial model, not a measurement.',
       `d_min ${dmin} A, seed ${seed}, ${options.unmerged ? 'unmerged' : 'merged, one hemisphere'}, ` +
         `noise mean=${options.meanIntensity ?? 1000} background=${options.background ?? 20} p=${options.p ?? 0.02}` +
         (options.incompleteness ? `, incomplete ${options.incompleteness}` : '') + (violations.length ? `, ${violations.length} weak violations` : ''),
     ];
-    writeAtomically(outFull, out, formatReflectionCif(table, basename(out).replace(/\.[^.]*$/, ''), header));
+    writeFileAtomically(outFull, out, writeReflectionCif(table, { blockName: basename(out).replace(/\.[^.]*$/, ''), comments: header }));
     const summary = {
       out, model: modelPath, reflections: table.n, unmerged: Boolean(options.unmerged), dmin, seed,
       scale, absent, violations,
@@ -93,44 +94,3 @@ export const command: Command = {
     return 0;
   },
 };
-
-function sameFile(a: string, b: string): boolean {
-  if (a === b) return true;
-  try {
-    return existsSync(a) && existsSync(b) && realpathSync(a) === realpathSync(b);
-  } catch {
-    return false;
-  }
-}
-
-/** Write to a temporary file beside the target, then rename: a reader never sees half a file. */
-function writeAtomically(full: string, shown: string, text: string): void {
-  const tmp = resolve(dirname(full), `.${basename(full)}.${process.pid}.tmp`);
-  try {
-    writeFileSync(tmp, text);
-    renameSync(tmp, full);
-  } catch (e) {
-    try { unlinkSync(tmp); } catch { /* nothing to clean */ }
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new InputError(`cannot write the file: ${code === 'ENOENT' ? 'no such directory' : code === 'EACCES' ? 'permission denied' : (e as Error).message}`, { file: shown });
-  }
-}
-
-/** Temporary local writer until the io layer's CIF writer is available. */
-function formatReflectionCif(table: ReflectionTable, blockName: string, comments: string[]): string {
-  const m = table.meta;
-  const lines = comments.map((c) => `# ${c}`);
-  lines.push(`data_${blockName.replace(/\s+/g, '_') || 'simulated'}`);
-  if (m.cell) {
-    const c = m.cell;
-    lines.push(`_cell_length_a ${c.a}`, `_cell_length_b ${c.b}`, `_cell_length_c ${c.c}`,
-      `_cell_angle_alpha ${c.alpha}`, `_cell_angle_beta ${c.beta}`, `_cell_angle_gamma ${c.gamma}`);
-  }
-  if (m.wavelength) lines.push(`_diffrn_radiation_wavelength ${m.wavelength}`);
-  const p = m.unmerged ? '_diffrn_refln' : '_refln';
-  lines.push('loop_', `${p}_index_h`, `${p}_index_k`, `${p}_index_l`,
-    m.unmerged ? '_diffrn_refln_intensity_net' : '_refln_F_squared_meas', m.unmerged ? '_diffrn_refln_intensity_u' : '_refln_F_squared_sigma');
-  for (let j = 0; j < table.n; j++)
-    lines.push(`${table.h[j]} ${table.k[j]} ${table.l[j]} ${+table.i[j].toFixed(2)} ${+table.sigma[j].toFixed(2)}`);
-  return lines.join('\n') + '\n';
-}
