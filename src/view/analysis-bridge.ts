@@ -1,6 +1,8 @@
 import type { ReflectionTable } from '../core';
-import type { AnalysisView, StatisticsView, WilsonPoint } from './analysis-view';
+import type { AnalysisView, CandidateRow, ConditionRow, StatisticsView, WilsonPoint } from './analysis-view';
 import { makeCell } from '../lattice';
+import { rankSpaceGroups, type RankResult } from '../analysis';
+import type { Rule } from './rules';
 
 /**
  * Runs the ranking engine (src/analysis) in the worker and turns its result
@@ -9,9 +11,50 @@ import { makeCell } from '../lattice';
  */
 export function runAnalysis(table: ReflectionTable, onProgress: (fraction: number) => void): AnalysisView {
   onProgress(0);
-  const statistics = wilsonOnly(table);
+  const w = wilsonOnly(table);
+  const r = rankSpaceGroups(table, {}, (f) => { onProgress(f); });
   onProgress(1);
-  return { available: false, notes: ['The space-group ranking engine is not part of this build yet; the data and statistics are shown.'], candidates: [], conditions: [], statistics };
+  if (!r.ok) return { available: false, notes: [`No ranking: ${r.error.describe()}`], candidates: [], conditions: [], statistics: w };
+  return fromRank(r.value, w);
+}
+
+function pct(p: number): string {
+  return p >= 0.995 ? '>99%' : p < 0.005 ? '<1%' : `${Math.round(p * 100)}%`;
+}
+
+/** Maps the ranking engine's report (the `lacuna rank --json` shape) onto the panels' view. */
+export function fromRank(r: RankResult, wilson: StatisticsView): AnalysisView {
+  const conditions: ConditionRow[] = r.conditions.map((c) => ({
+    text: c.text, zone: c.zone, coeffs: c.coeffs, modulus: c.modulus, n: c.n,
+    meanIOverSigma: c.mean_i_over_sigma ?? NaN, nStrong: c.n_strong, probabilityAbsent: c.probability_absent,
+  }));
+  const byText = new Map<string, Rule>(conditions.map((c) => [c.text, c]));
+  const classes = new Map(r.classes.map((c) => [c.id, c]));
+  const candidates: CandidateRow[] = r.candidates.map((c) => {
+    const why: string[] = [];
+    why.push(`Laue class ${c.laue} (${c.crystal_system})${c.centrosymmetric ? ', centrosymmetric' : ', non-centrosymmetric'}${c.sohncke ? ', allowed for a chiral sample' : ''}.`);
+    for (const k of c.conditions) {
+      const strong = k.n_strong > 0 ? `, ${k.n_strong} strong` : '';
+      const missing = k.forbidden_class_missing ? ', the forbidden reflections are missing from the file' : '';
+      why.push(`${k.text}: ${k.n} tested${strong}${missing}; holds with ${pct(k.probability_absent)}.`);
+    }
+    for (const a of c.against.slice(0, 3)) why.push(`Against it: ${a.h} ${a.k} ${a.l} has I/\u03c3 ${a.i_over_sigma.toFixed(1)} although ${a.condition} forbids it.`);
+    const cls = classes.get(c.class_id);
+    if (cls && cls.members.length > 1) why.push(`Absences cannot tell it from: ${cls.members.filter((m) => m !== c.hm).slice(0, 6).join(', ')}.`);
+    if (c.change_of_basis) why.push(`Non-standard setting of No. ${c.number} (standard by ${c.change_of_basis}).`);
+    const rules = c.conditions.map((k) => byText.get(k.text)).filter((x): x is Rule => x !== undefined);
+    return { number: c.number, hm: c.hm, hall: c.hall, probability: c.probability, explanation: why, rules, centrosymmetric: c.centrosymmetric, sohncke: c.sohncke };
+  });
+  const st = r.statistics;
+  const statistics: StatisticsView = {
+    ...wilson,
+    nz: { z: st.nz.z, observed: st.nz.observed, acentric: st.nz.acentric, centric: st.nz.centric },
+    probabilityCentric: st.probability_centric,
+  };
+  const notes = [...r.warnings];
+  if (r.absences_removed) notes.push('The reflections forbidden by the best candidates seem to have been removed from this file before it was saved; the ranking counts such missing classes as evidence too.');
+  const best = r.laue.classes[0];
+  return { available: true, notes, laue: best ? `${best.symbol} (${pct(best.probability)})` : undefined, candidates, conditions, statistics };
 }
 
 /**
