@@ -3,6 +3,7 @@ import { formatHelp, parseArgs, numberOption, usageError, type CommandSpec } fro
 import { DATA_OPTIONS, loadReflections } from '../load-data';
 import { cellJson, loadModel, MODEL_BLOCK_OPTION } from '../load-model';
 import { compareModelWithData, prepareModel } from '../../model';
+import { formatFloat32 } from '../../io';
 
 const spec: CommandSpec = {
   name: 'compare',
@@ -52,7 +53,7 @@ export const command: Command = {
         model: modelPath, data: dataPath, cell: cellJson(model),
         n: c.n, excluded: c.excluded,
         scale: c.scale, r1: nullIfNaN(c.r1), r1_reflections: c.r1Count, wr2: nullIfNaN(c.wr2), goof: nullIfNaN(c.goof),
-        worst: c.worst.map((w) => ({ h: w.h, k: w.k, l: w.l, i_obs: w.iObs, sigma: w.sigma, i_calc: round(w.iCalc, 3), deviation: round(w.deviation, 3) })),
+        worst: c.worst.map((w) => ({ h: w.h, k: w.k, l: w.l, i_obs: Number(formatFloat32(w.iObs)), sigma: Number(formatFloat32(w.sigma)), i_calc: round(w.iCalc, 3), deviation: round(w.deviation, 3) })),
         warnings,
       }) + '\n');
       return 0;
