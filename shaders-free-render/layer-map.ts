@@ -350,7 +350,12 @@ function arrow(img: RgbaImage, o: number[], u: number[], len: number, color: num
   const hx = -u[1], hy = u[0], hl = 6 * ts;
   drawLine(img, ex, ey, ex - u[0] * hl + hx * hl * 0.5, ey - u[1] * hl + hy * hl * 0.5, color);
   drawLine(img, ex, ey, ex - u[0] * hl - hx * hl * 0.5, ey - u[1] * hl - hy * hl * 0.5, color);
-  drawText(img, label, ex + u[0] * 8 * ts, ey + u[1] * 8 * ts - textHeight(ts) / 2, color, ts, u[0] < -0.3 ? 'right' : u[0] > 0.3 ? 'left' : 'center');
+  const align = u[0] < -0.3 ? 'right' : u[0] > 0.3 ? 'left' : 'center';
+  const tw = measureText(label, ts), tx = ex + u[0] * 8 * ts, ty = ey + u[1] * 8 * ts - textHeight(ts) / 2;
+  const left = align === 'left' ? tx : align === 'right' ? tx - tw : tx - tw / 2;
+  // A dark backing keeps the axis name readable over spots.
+  fillRect(img, left - 2 * ts, ty - 2 * ts, tw + 4 * ts, textHeight(ts) + 4 * ts, MARK.panel);
+  drawText(img, label, tx, ty, color, ts, align);
 }
 
 function drawLegend(img: RgbaImage, ts: number, o: { calc: boolean; rule?: string; forbidden: boolean; sat: number; spotCount: number; violations: number }): void {

@@ -26,7 +26,7 @@ export function checkOutputPath(full: string, shown: string, inputs: readonly st
 }
 
 /** Write to a temporary file beside the target, then rename: a reader never sees half a file. */
-export function writeFileAtomically(full: string, shown: string, text: string): void {
+export function writeFileAtomically(full: string, shown: string, text: string | Uint8Array): void {
   const tmp = resolve(dirname(full), `.${basename(full)}.${process.pid}.tmp`);
   try {
     writeFileSync(tmp, text);
