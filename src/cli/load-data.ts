@@ -31,7 +31,10 @@ export function readInputBytes(path: string, ctx: CliContext): Uint8Array {
   } catch (e) {
     if (e instanceof InputError) throw e;
     const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EACCES' ? 'permission denied' : (e as Error).message;
+    const why = code === 'ENOENT' ? 'no such file'
+      : code === 'EACCES' ? 'permission denied'
+      : code === 'ERR_FS_FILE_TOO_LARGE' ? 'larger than 2 GB, the most Node reads at once; split the data set or compress it with gzip'
+      : (e as Error).message;
     throw new InputError(`cannot read the file: ${why}`, { file: path });
   }
   const bytes = new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength);
