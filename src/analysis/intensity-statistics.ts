@@ -163,7 +163,9 @@ export function intensityStatistics(
     const mm = clamp(secondMoment, 0, 6);
     const llrM = ((mm - 2) * (mm - 2) - (mm - 3) * (mm - 3)) / (2 * t2);
     // The two measure overlapping features of the same distribution: temper their sum.
-    centricLogOdds = clamp(0.7 * (llrNz + llrM), -CENTRIC_LOG_ODDS_CAP, CENTRIC_LOG_ODDS_CAP);
+    // fewer than 500 general reflections: proportionally less weight (thin evidence stays uncertain)
+    const cap = CENTRIC_LOG_ODDS_CAP * Math.min(1, n / 500);
+    centricLogOdds = clamp(0.7 * (llrNz + llrM), -cap, cap);
   }
 
   const lTest = lStatistic(table, use, index);
@@ -192,16 +194,18 @@ export function intensityStatistics(
 
 /**
  * L-test (Padilla & Yeates 2003): L = (I1 - I2)/(I1 + I2) for pairs of reflections whose
- * indices differ by 2 along one axis (local pairs; even steps avoid most effects of
- * translational pseudo-symmetry), both general. Pairs with I1 + I2 <= 0 are skipped.
+ * indices differ by a short even step (local pairs; even steps avoid most effects of
+ * translational pseudo-symmetry; the diagonal steps keep rhombohedral centring), both in use.
+ * Pairs with I1 + I2 <= 0 are skipped.
  */
+const L_STEPS = [[2, 0, 0], [0, 2, 0], [0, 0, 2], [2, 2, 0], [2, 0, 2]] as const;
 function lStatistic(table: ReflectionTable, use: Uint8Array, index: HklIndex) {
   let pairs = 0, sAbs = 0, s2 = 0;
   for (let j = 0; j < table.n; j++) {
     if (!use[j]) continue;
     const h = table.h[j], k = table.k[j], l = table.l[j];
-    for (let d = 0; d < 3; d++) {
-      const q = index.find(h + (d === 0 ? 2 : 0), k + (d === 1 ? 2 : 0), l + (d === 2 ? 2 : 0));
+    for (const d of L_STEPS) {
+      const q = index.find(h + d[0], k + d[1], l + d[2]);
       if (q < 0 || !use[q]) continue;
       const a = table.i[j], b = table.i[q];
       if (a + b <= 0) continue;

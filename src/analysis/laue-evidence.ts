@@ -107,7 +107,7 @@ export function distinctRotations(rotations: readonly ArrayLike<number>[]): numb
  */
 export function rotationAgreements(
   table: ReflectionTable, e2: Float64Array, sE: Float64Array, rotations: readonly number[][], index: HklIndex,
-  expected: Float64Array, k: number,
+  expected: Float64Array, k: number, use?: Uint8Array,
 ): RotationAgreement[] {
   const n = table.n;
   const stride = Math.max(1, Math.floor(n / 200_000));
@@ -116,6 +116,7 @@ export function rotationAgreements(
     let pairs = 0, distinct = 0;
     let sx = 0, sy = 0, sxx = 0, syy = 0, sxy = 0, sNoise = 0;
     for (let j = 0; j < n; j += stride) {
+      if (use && !use[j]) continue;
       const h = table.h[j], k = table.k[j], l = table.l[j];
       const h2 = h * r[0] + k * r[3] + l * r[6];
       const k2 = h * r[1] + k * r[4] + l * r[7];
@@ -123,7 +124,7 @@ export function rotationAgreements(
       if ((h2 === h && k2 === k && l2 === l) || (h2 === -h && k2 === -k && l2 === -l)) continue;
       distinct++;
       const q = index.findWithFriedel(h2, k2, l2);
-      if (q < 0 || q === j || (involution && q < j)) continue;
+      if (q < 0 || q === j || (involution && q < j) || (use && !use[q])) continue;
       const x = clamp(e2[j], -2, 12), y = clamp(e2[q], -2, 12);
       pairs++;
       sx += x; sy += y; sxx += x * x; syy += y * y; sxy += x * y;
@@ -138,7 +139,7 @@ export function rotationAgreements(
       ccExpected = v > 0 ? clamp((v - sNoise / pairs) / v, 0.2, 0.97) : 0.2;
     }
     const merged = pairs === 0 && distinct >= 20;
-    const logOdds = pairs >= 1 ? clamp(pairLogOddsSum(table, expected, k, r, index, stride, involution), -30, 30) : 0;
+    const logOdds = pairs >= 1 ? clamp(pairLogOddsSum(table, expected, k, r, index, stride, involution, use), -30, 30) : 0;
     return { r, label: axisLabel(r), pairs, cc, ccExpected, distinct, merged, logOdds };
   });
 }
@@ -172,12 +173,14 @@ function logWilsonGauss(x: number, s: number, S: number): number {
  */
 function pairLogOddsSum(
   table: ReflectionTable, expected: Float64Array, k: number, r: readonly number[], index: HklIndex, stride: number, involution: boolean,
+  use?: Uint8Array,
 ): number {
   let sum = 0;
   for (let j = 0; j < table.n; j += stride) {
+    if (use && !use[j]) continue;
     const h = table.h[j], kk = table.k[j], l = table.l[j];
     const q = index.findWithFriedel(h * r[0] + kk * r[3] + l * r[6], h * r[1] + kk * r[4] + l * r[7], h * r[2] + kk * r[5] + l * r[8]);
-    if (q < 0 || q === j || (involution && q < j)) continue;
+    if (q < 0 || q === j || (involution && q < j) || (use && !use[q])) continue;
     const I1 = table.i[j], I2 = table.i[q];
     const e1 = Math.hypot(k * table.sigma[j], 0.03 * Math.max(I1, 0)) || 1e-6;
     const e2 = Math.hypot(k * table.sigma[q], 0.03 * Math.max(I2, 0)) || 1e-6;

@@ -34,7 +34,8 @@ function shellOf(stol2: number, stol3Max: number, count: number): number {
 /**
  * Build shells from the reflections with `use[j] !== 0` (e.g. general reflections only);
  * every reflection still gets a Sigma from `expectedIntensity`.
- * About 400 reflections per shell, between 1 and 20 shells (common practice).
+ * About 80 reflections per shell, between 1 and 20 shells (common practice: enough shells to
+ * follow the fall-off, enough reflections per shell for a stable mean).
  */
 export function buildShells(table: ReflectionTable, stol2: Float64Array, use?: Uint8Array): ResolutionShells {
   let nUse = 0;
@@ -44,7 +45,7 @@ export function buildShells(table: ReflectionTable, stol2: Float64Array, use?: U
     nUse++;
     if (stol2[j] > max) max = stol2[j];
   }
-  const count = Math.max(1, Math.min(20, Math.floor(nUse / 400)));
+  const count = Math.max(1, Math.min(20, Math.floor(nUse / 80)));
   const stol3Max = max > 0 ? max * Math.sqrt(max) * (1 + 1e-9) : 1;
   const sumI = new Float64Array(count), sumS = new Float64Array(count), sumIS = new Float64Array(count);
   const cnt = new Int32Array(count);

@@ -359,8 +359,40 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   normalise();
   progress(0.3, 'Laue class');
 
+  // --- absences, pass 1: reflections forbidden by a clearly obeyed condition (lattice centring
+  // above all) are left out of the normalisation, the statistics and the Laue test, where pairs
+  // of zeros would agree trivially and dilute the shell means.
+  const model = { k, violationFraction: 0.03 };
+  let abs = absenceEvidence(table, expected, condList, model);
+  const excludeClear = () => {
+    const clear = abs.conditions.filter((c) => c.probabilityAbsent > 0.999 && c.n >= 10);
+    let changed = false;
+    for (let j = 0; j < n; j++) {
+      if (!use[j] && !general[j]) continue;
+      let out = false;
+      for (const c of clear) if (forbids(c.condition, table.h[j], table.k[j], table.l[j])) { out = true; break; }
+      const u = out ? 0 : general[j];
+      if (u !== use[j]) { use[j] = u; changed = true; }
+    }
+    return changed;
+  };
+  const laueUse = new Uint8Array(n).fill(1);
+  const refreshLaueUse = () => {
+    const clear = abs.conditions.filter((c) => c.probabilityAbsent > 0.999 && c.n >= 10);
+    for (let j = 0; j < n; j++) {
+      let out = 0;
+      for (const c of clear) if (forbids(c.condition, table.h[j], table.k[j], table.l[j])) { out = 1; break; }
+      laueUse[j] = out ? 0 : 1;
+    }
+  };
+  if (excludeClear()) {
+    shells = buildShells(table, stol2, use);
+    expected = expectedIntensityColumn(shells, stol2, n);
+    normalise();
+  }
+  refreshLaueUse();
   // --- Laue evidence
-  let agreements = rotationAgreements(table, e2, sE, union, index, expected, k);
+  let agreements = rotationAgreements(table, e2, sE, union, index, expected, k, laueUse);
   const inClass = (key: string, r: number[]) => {
     const set = key.split(';');
     return set.includes(rotationKeyText(r)) || set.includes(rotationKeyText(inverseRotation(r)));
@@ -372,8 +404,9 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
       const p = sigmaScaleFromPairs(table, good, index);
       if (Number.isFinite(p.k)) {
         k = p.k; kSource = `${p.pairs} weak symmetry-equivalent pairs`;
+        model.k = k;
         normalise();
-        agreements = rotationAgreements(table, e2, sE, union, index, expected, k);
+        agreements = rotationAgreements(table, e2, sE, union, index, expected, k, laueUse);
       }
     }
   }
@@ -393,18 +426,9 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   });
   progress(0.5, 'absences');
 
-  // --- absences (two passes: reflections forbidden by a clearly obeyed lattice condition are
-  // left out of the normalisation and statistics, or they would dilute the shell means)
-  const model = { k, violationFraction: 0.03 };
-  let abs = absenceEvidence(table, expected, condList, model);
-  const excluded = abs.conditions
-    .map((c, j) => ({ c, j }))
-    .filter(({ c }) => c.probabilityAbsent > 0.999 && c.n >= 10);
-  if (excluded.length) {
-    for (let j = 0; j < n; j++) {
-      if (!use[j]) continue;
-      for (const { c } of excluded) if (forbids(c.condition, table.h[j], table.k[j], table.l[j])) { use[j] = 0; break; }
-    }
+  // --- absences, pass 2 with the final sigma scale and normalisation
+  abs = absenceEvidence(table, expected, condList, model);
+  if (excludeClear()) {
     shells = buildShells(table, stol2, use);
     expected = expectedIntensityColumn(shells, stol2, n);
     normalise();

@@ -1,0 +1,76 @@
+/**
+ * Data for the ranking accuracy suite: a random structure in a given space-group setting
+ * (a few light atoms and one heavier one at random general positions), its cell drawn at
+ * random and made to fit the setting's metric exactly (group average of R^T G R), then
+ * measured-looking data from the project's seeded simulator (src/model): merged in P-1
+ * (a hemisphere), counting and proportional noise, random incompleteness and a few weak
+ * violations of the absences (2-6 sigma, as multiple diffraction gives).
+ */
+import { makeCell } from '../../src/lattice';
+import { atomSitesFromList, simulateData, SeededRandom, type CrystalModel } from '../../src/model';
+import type { SpaceGroupSetting } from '../../src/symmetry';
+import type { ReflectionTable } from '../../src/core';
+
+function metricFromParams(a: number, b: number, c: number, al: number, be: number, ga: number): number[] {
+  const r = Math.PI / 180;
+  const ab = a * b * Math.cos(ga * r), ac = a * c * Math.cos(be * r), bc = b * c * Math.cos(al * r);
+  return [a * a, ab, ac, ab, b * b, bc, ac, bc, c * c];
+}
+
+export function randomCellFor(setting: SpaceGroupSetting, rng: SeededRandom, volumeTarget: number) {
+  const g = metricFromParams(
+    5 + 10 * rng.uniform(), 5 + 10 * rng.uniform(), 5 + 10 * rng.uniform(),
+    80 + 25 * rng.uniform(), 80 + 25 * rng.uniform(), 80 + 25 * rng.uniform(),
+  );
+  const avg = new Array<number>(9).fill(0);
+  for (const R of setting.rotations)
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++) {
+        let s = 0;
+        for (let k = 0; k < 3; k++) for (let l = 0; l < 3; l++) s += R[k * 3 + i] * g[k * 3 + l] * R[l * 3 + j];
+        avg[i * 3 + j] += s / setting.rotations.length;
+      }
+  const a = Math.sqrt(avg[0]), b = Math.sqrt(avg[4]), c = Math.sqrt(avg[8]);
+  const d = 180 / Math.PI;
+  let p = { a, b, c, alpha: Math.acos(avg[5] / (b * c)) * d, beta: Math.acos(avg[2] / (a * c)) * d, gamma: Math.acos(avg[1] / (a * b)) * d };
+  const cell0 = makeCell(p);
+  if (!cell0.ok) throw cell0.error;
+  const f = Math.cbrt(volumeTarget / cell0.value.volume);
+  p = { ...p, a: a * f, b: b * f, c: c * f };
+  const cell = makeCell(p);
+  if (!cell.ok) throw cell.error;
+  return cell.value;
+}
+
+export interface SimulatedCase {
+  readonly setting: SpaceGroupSetting;
+  readonly table: ReflectionTable;
+}
+
+export function simulateCase(setting: SpaceGroupSetting, seed: number, targetReflections = 3000): SimulatedCase {
+  const rng = new SeededRandom(seed);
+  const nAsu = 4 + rng.below(5);
+  const order = setting.ops.length;
+  const cell = randomCellFor(setting, rng, Math.max(400, 18 * nAsu * order));
+  // resolution giving about targetReflections in the hemisphere: N = (2/3) pi V / d^3
+  const dmin = Math.max(0.6, Math.cbrt(((2 / 3) * Math.PI * cell.volume) / targetReflections));
+  const atoms = Array.from({ length: nAsu }, (_, j) => ({
+    label: `A${j + 1}`,
+    element: j === 0 && rng.uniform() < 0.5 ? 'S' : ['C', 'N', 'O'][rng.below(3)],
+    x: rng.uniform(), y: rng.uniform(), z: rng.uniform(),
+    uiso: 0.02 + 0.03 * rng.uniform(),
+  }));
+  const model: CrystalModel = { source: `random ${setting.hm}`, cell, ops: setting.ops, atoms: atomSitesFromList(atoms), warnings: [] };
+  const r = simulateData(model, {
+    dmin,
+    seed: seed + 1,
+    meanIntensity: 200 + 3000 * rng.uniform(),
+    background: 20,
+    p: 0.03,
+    incompleteness: 0.05 + 0.1 * rng.uniform(),
+    violations: rng.below(4),
+    source: `simulated ${setting.hm} seed ${seed}`,
+  });
+  if (!r.ok) throw r.error;
+  return { setting, table: r.value.table };
+}
