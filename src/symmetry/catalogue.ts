@@ -9,9 +9,10 @@ import type { SpaceGroupSetting } from './settings';
  *   violated(i)  = bit set of the distinct conditions reflection i breaks
  *   absent(i, s) = violated(i) & conditions(s) != 0
  *
- * Most reflections lie in no special zone; for them only the integral (centring) conditions
- * apply, whose outcome depends on h, k, l modulo a small number, so their bits come from a
- * precomputed table. Bit sets are stored reflection-major: words [i * W, (i + 1) * W).
+ * Every condition's outcome depends only on which zone equations a reflection satisfies and on
+ * h, k, l modulo the lcm of the moduli (12), so reflections fall into few absence classes,
+ * each evaluated once (classifyReflections). Bit sets are stored reflection-major or
+ * class-major: words [i * W, (i + 1) * W).
  */
 export interface ConditionCatalogue {
   readonly settings: readonly SpaceGroupSetting[];
@@ -37,16 +38,20 @@ interface Plan {
   condRowMask: Uint32Array;
   coeffs: Int32Array;
   moduli: Int32Array;
-  /** Modulus of the residue table for reflections in no special zone, and its entries. */
-  resMod: number;
-  resCond: Uint32Array;
-  resSetting: Uint32Array;
+  /** Period of every condition's outcome: lcm of all moduli; residues of h, k, l modulo it. */
+  period: number;
+  /** Class of a reflection in no special zone, by residue cell (-1 = not made yet). */
+  generalClass: Int32Array;
+  /** Class of a reflection on special zones, by mask * period^3 + residue cell. */
+  specialClass: Map<number, number>;
+  /** Per class: setting bits (settingWords each) and broken-condition bits (conditionWords each). */
+  classSetting: Uint32Array;
+  classCond: Uint32Array;
+  nClasses: number;
   /** Per condition, the setting bit set of the settings having it (settingWords words). */
   condSettingBits: Uint32Array;
-  /** Per condition, its own bit in a condition bit set (conditionWords words). */
-  condOwnBits: Uint32Array;
-  /** Cache: row mask -> conditions whose zone contains every reflection with that mask. */
-  byMask: Map<number, Int32Array>;
+  settingWords: number;
+  conditionWords: number;
 }
 
 function lcm(a: number, b: number): number {
@@ -86,13 +91,14 @@ export function buildConditionCatalogue(settings: readonly SpaceGroupSetting[]):
   const condRowMask = new Uint32Array(nc);
   const coeffs = new Int32Array(nc * 3);
   const moduli = new Int32Array(nc);
+  let period = 1;
   conditions.forEach((c, j) => {
     for (const e of c.zone) {
       const k = e.join(',');
       let r = rowIndex.get(k);
       if (r === undefined) {
         r = rowList.length / 3;
-        if (r >= 32) throw new Error('buildConditionCatalogue: more than 32 distinct zone rows');
+        if (r >= 31) throw new Error('buildConditionCatalogue: more than 31 distinct zone rows');
         rowIndex.set(k, r);
         rowList.push(e[0], e[1], e[2]);
       }
@@ -100,33 +106,10 @@ export function buildConditionCatalogue(settings: readonly SpaceGroupSetting[]):
     }
     coeffs.set(c.coeffs, 3 * j);
     moduli[j] = c.modulus;
+    period = lcm(period, c.modulus);
   });
   const condSettingBits = new Uint32Array(nc * settingWords);
   settingsOf.forEach((list, j) => list.forEach((s) => (condSettingBits[j * settingWords + (s >>> 5)] |= 1 << (s & 31))));
-
-  const condOwnBits = new Uint32Array(nc * conditionWords);
-  for (let j = 0; j < nc; j++) condOwnBits[j * conditionWords + (j >>> 5)] = 1 << (j & 31);
-
-  // residue table for reflections in no special zone: only integral conditions apply
-  let resMod = 1;
-  for (let j = 0; j < nc; j++) if (condRowMask[j] === 0) resMod = lcm(resMod, moduli[j]);
-  const useTable = resMod <= 24;
-  if (!useTable) resMod = 0;
-  const size = useTable ? resMod * resMod * resMod : 0;
-  const resCond = new Uint32Array(size * conditionWords);
-  const resSetting = new Uint32Array(size * settingWords);
-  const integral: number[] = [];
-  for (let j = 0; j < nc; j++) if (condRowMask[j] === 0) integral.push(j);
-  for (let a = 0; a < resMod; a++)
-    for (let b = 0; b < resMod; b++)
-      for (let c = 0; c < resMod; c++) {
-        const cell = (a * resMod + b) * resMod + c;
-        for (const j of integral) {
-          if ((coeffs[3 * j] * a + coeffs[3 * j + 1] * b + coeffs[3 * j + 2] * c) % moduli[j] === 0) continue;
-          resCond[cell * conditionWords + (j >>> 5)] |= 1 << (j & 31);
-          for (let w = 0; w < settingWords; w++) resSetting[cell * settingWords + w] |= condSettingBits[j * settingWords + w];
-        }
-      }
 
   const plan: Plan = {
     rows: Int32Array.from(rowList),
@@ -134,12 +117,15 @@ export function buildConditionCatalogue(settings: readonly SpaceGroupSetting[]):
     condRowMask,
     coeffs,
     moduli,
-    resMod,
-    resCond,
-    resSetting,
+    period,
+    generalClass: new Int32Array(period * period * period).fill(-1),
+    specialClass: new Map(),
+    classSetting: new Uint32Array(256 * settingWords),
+    classCond: new Uint32Array(256 * conditionWords),
+    nClasses: 0,
     condSettingBits,
-    condOwnBits,
-    byMask: new Map(),
+    settingWords,
+    conditionWords,
   };
   return {
     settings,
@@ -152,24 +138,106 @@ export function buildConditionCatalogue(settings: readonly SpaceGroupSetting[]):
   };
 }
 
-function conditionsForMask(plan: Plan, mask: number): Int32Array {
-  let list = plan.byMask.get(mask);
-  if (!list) {
-    const ids: number[] = [];
-    for (let j = 0; j < plan.condRowMask.length; j++) if ((plan.condRowMask[j] & ~mask) === 0) ids.push(j);
-    list = Int32Array.from(ids);
-    plan.byMask.set(mask, list);
+/** Miller indices as columns (Int16Array in a ReflectionTable); |index| must stay below OFFSET. */
+type IndexColumn = ArrayLike<number>;
+const OFFSET = 1 << 20;
+
+/**
+ * A new class for reflections with zone mask `mask` and residues like (h, k, l): every
+ * condition's outcome depends only on the zones the reflection lies in and c.h modulo m,
+ * m dividing the period, so one representative decides the whole class.
+ */
+function makeClass(p: Plan, mask: number, h: number, k: number, l: number): number {
+  const id = p.nClasses++;
+  const SW = p.settingWords, CW = p.conditionWords;
+  if ((id + 1) * SW > p.classSetting.length) {
+    const grow = (a: Uint32Array) => { const b = new Uint32Array(a.length * 2); b.set(a); return b; };
+    p.classSetting = grow(p.classSetting);
+    p.classCond = grow(p.classCond);
   }
-  return list;
+  for (let j = 0; j < p.condRowMask.length; j++) {
+    if ((p.condRowMask[j] & ~mask) !== 0) continue;
+    if ((p.coeffs[3 * j] * h + p.coeffs[3 * j + 1] * k + p.coeffs[3 * j + 2] * l) % p.moduli[j] === 0) continue;
+    p.classCond[id * CW + (j >>> 5)] |= 1 << (j & 31);
+    for (let w = 0; w < SW; w++) p.classSetting[id * SW + w] |= p.condSettingBits[j * SW + w];
+  }
+  return id;
 }
 
-type IndexColumn = ArrayLike<number>;
+/**
+ * Reflections sorted into absence classes: reflections of one class break the same
+ * conditions and are absent in the same settings. This is the whole-table absence test in
+ * one pass: per reflection, the zones it lies on (a few integer dot products) and its residues
+ * select the class; nothing loops over settings or operations per reflection.
+ *
+ * Reflection i is absent in setting s exactly when bit s of
+ * settingBits[classOf[i] * settingWords ...] is set, and breaks condition j exactly when bit j of
+ * conditionBits[classOf[i] * conditionWords ...] is set. The catalogue keeps its classes between
+ * calls; the returned tables are views valid until the next call.
+ */
+export interface AbsenceClasses {
+  readonly n: number;
+  readonly classOf: Uint32Array;
+  readonly nClasses: number;
+  readonly settingBits: Uint32Array;
+  readonly conditionBits: Uint32Array;
+}
 
-function rowMaskOf(plan: Plan, h: number, k: number, l: number): number {
-  const rows = plan.rows;
-  let mask = 0;
-  for (let r = 0, o = 0; r < plan.nRows; r++, o += 3) if (rows[o] * h + rows[o + 1] * k + rows[o + 2] * l === 0) mask |= 1 << r;
-  return mask;
+export function classifyReflections(
+  cat: ConditionCatalogue,
+  h: IndexColumn,
+  k: IndexColumn,
+  l: IndexColumn,
+  n: number,
+  out?: Uint32Array,
+): AbsenceClasses {
+  const p = cat.plan;
+  const classOf = out && out.length >= n ? out : new Uint32Array(n);
+  const P = p.period;
+  const P3 = P * P * P;
+  const rows = p.rows;
+  const nRows = p.nRows;
+  const general = p.generalClass;
+  // a multiple of the period that makes every index positive: % on negative operands gives -0,
+  // which pushes the loop off small-integer arithmetic
+  const shift = P * Math.ceil(OFFSET / P);
+  for (let i = 0; i < n; i++) {
+    const hi = h[i], ki = k[i], li = l[i];
+    let mask = 0;
+    for (let r = 0, o = 0; r < nRows; r++, o += 3)
+      if (Math.imul(rows[o], hi) + Math.imul(rows[o + 1], ki) + Math.imul(rows[o + 2], li) === 0) mask |= 1 << r;
+    const cell = (((hi + shift) % P) * P + ((ki + shift) % P)) * P + ((li + shift) % P);
+    let c: number;
+    if (mask === 0) {
+      c = general[cell];
+      if (c < 0) c = general[cell] = makeClass(p, 0, hi, ki, li);
+    } else {
+      const key = mask * P3 + cell;
+      const hit = p.specialClass.get(key);
+      if (hit === undefined) {
+        c = makeClass(p, mask, hi, ki, li);
+        p.specialClass.set(key, c);
+      } else c = hit;
+    }
+    classOf[i] = c;
+  }
+  return {
+    n,
+    classOf,
+    nClasses: p.nClasses,
+    settingBits: p.classSetting.subarray(0, p.nClasses * p.settingWords),
+    conditionBits: p.classCond.subarray(0, p.nClasses * p.conditionWords),
+  };
+}
+
+function expand(classOf: Uint32Array, n: number, table: Uint32Array, W: number, out?: Uint32Array): Uint32Array {
+  const res = out && out.length >= n * W ? out : new Uint32Array(n * W);
+  for (let i = 0; i < n; i++) {
+    const src = classOf[i] * W;
+    const dst = i * W;
+    for (let w = 0; w < W; w++) res[dst + w] = table[src + w];
+  }
+  return res;
 }
 
 /**
@@ -185,15 +253,15 @@ export function evaluateConditions(
   n: number,
   out?: Uint32Array,
 ): Uint32Array {
-  const p = cat.plan;
-  return scan(p, h, k, l, n, cat.conditionWords, p.resCond, p.condOwnBits, out);
+  const c = classifyReflections(cat, h, k, l, n);
+  return expand(c.classOf, n, c.conditionBits, cat.conditionWords, out);
 }
 
 /**
- * Absence of every reflection in every setting of the catalogue: bit s of words
+ * Absence of every reflection in every setting as a bit matrix: bit s of words
  * [i*W, (i+1)*W), W = catalogue.settingWords, is set when reflection i is systematically
- * absent in setting s. One pass over the reflections; no loop over settings or operations
- * per reflection. `out` (length >= n * W) is reused when given.
+ * absent in setting s. `out` (length >= n * W) is reused when given. classifyReflections gives
+ * the same information without materialising n * W words.
  */
 export function absenceBits(
   cat: ConditionCatalogue,
@@ -203,46 +271,8 @@ export function absenceBits(
   n: number,
   out?: Uint32Array,
 ): Uint32Array {
-  const p = cat.plan;
-  return scan(p, h, k, l, n, cat.settingWords, p.resSetting, p.condSettingBits, out);
-}
-
-/**
- * The one loop behind both: per reflection, either copy the residue-table entry (no special
- * zone) or OR in `perCondition` words for every broken condition of the zones it lies in.
- */
-function scan(
-  p: Plan,
-  h: IndexColumn,
-  k: IndexColumn,
-  l: IndexColumn,
-  n: number,
-  W: number,
-  residueTable: Uint32Array,
-  perCondition: Uint32Array,
-  out?: Uint32Array,
-): Uint32Array {
-  const res = out && out.length >= n * W ? out : new Uint32Array(n * W);
-  res.fill(0, 0, n * W);
-  const m = p.resMod;
-  for (let i = 0; i < n; i++) {
-    const hi = h[i], ki = k[i], li = l[i];
-    const mask = rowMaskOf(p, hi, ki, li);
-    const base = i * W;
-    if (mask === 0 && m > 0) {
-      const src = (((((hi % m) + m) % m) * m + (((ki % m) + m) % m)) * m + (((li % m) + m) % m)) * W;
-      for (let w = 0; w < W; w++) res[base + w] = residueTable[src + w];
-      continue;
-    }
-    const list = conditionsForMask(p, mask);
-    for (let q = 0; q < list.length; q++) {
-      const j = list[q];
-      if ((p.coeffs[3 * j] * hi + p.coeffs[3 * j + 1] * ki + p.coeffs[3 * j + 2] * li) % p.moduli[j] === 0) continue;
-      const src = j * W;
-      for (let w = 0; w < W; w++) res[base + w] |= perCondition[src + w];
-    }
-  }
-  return res;
+  const c = classifyReflections(cat, h, k, l, n);
+  return expand(c.classOf, n, c.settingBits, cat.settingWords, out);
 }
 
 /** Read one bit of a reflection-major bit set with W words per reflection. */
@@ -250,35 +280,48 @@ export function testBit(bits: Uint32Array, words: number, i: number, j: number):
   return (bits[i * words + (j >>> 5)] & (1 << (j & 31))) !== 0;
 }
 
-/**
- * Absence flags of one setting as a column (1 = absent), from `absenceBits` output.
- * `out` (length >= n) is reused when given.
- */
-export function absentColumn(cat: ConditionCatalogue, bits: Uint32Array, n: number, settingIndex: number, out?: Uint8Array): Uint8Array {
+/** Absence flags of one setting as a column (1 = absent). `out` (length >= n) is reused when given. */
+export function absentColumn(cat: ConditionCatalogue, classes: AbsenceClasses, settingIndex: number, out?: Uint8Array): Uint8Array {
   const W = cat.settingWords;
+  const n = classes.n;
   const res = out && out.length >= n ? out : new Uint8Array(n);
   const word = settingIndex >>> 5;
   const bit = 1 << (settingIndex & 31);
-  for (let i = 0; i < n; i++) res[i] = (bits[i * W + word] & bit) !== 0 ? 1 : 0;
+  const flag = new Uint8Array(classes.nClasses);
+  for (let c = 0; c < classes.nClasses; c++) flag[c] = (classes.settingBits[c * W + word] & bit) !== 0 ? 1 : 0;
+  for (let i = 0; i < n; i++) res[i] = flag[classes.classOf[i]];
   return res;
 }
 
-/**
- * Number of absent reflections per setting (length settings.length), from `absenceBits` output.
- */
-export function countAbsentPerSetting(cat: ConditionCatalogue, bits: Uint32Array, n: number): Int32Array {
-  const W = cat.settingWords;
-  const counts = new Int32Array(cat.settings.length);
-  for (let i = 0; i < n; i++) {
-    const base = i * W;
+/** Number of reflections per class (length nClasses). */
+export function classCounts(classes: AbsenceClasses): Int32Array {
+  const counts = new Int32Array(classes.nClasses);
+  for (let i = 0; i < classes.n; i++) counts[classes.classOf[i]]++;
+  return counts;
+}
+
+/** Number of absent reflections per setting (length settings.length). */
+export function countAbsentPerSetting(cat: ConditionCatalogue, classes: AbsenceClasses): Int32Array {
+  return sumBitsByClass(classCounts(classes), classes.settingBits, cat.settingWords, cat.settings.length);
+}
+
+/** Number of reflections breaking each distinct condition (length conditions.length). */
+export function countBrokenPerCondition(cat: ConditionCatalogue, classes: AbsenceClasses): Int32Array {
+  return sumBitsByClass(classCounts(classes), classes.conditionBits, cat.conditionWords, cat.conditions.length);
+}
+
+function sumBitsByClass(perClass: Int32Array, table: Uint32Array, W: number, size: number): Int32Array {
+  const out = new Int32Array(size);
+  for (let c = 0; c < perClass.length; c++) {
+    if (perClass[c] === 0) continue;
     for (let w = 0; w < W; w++) {
-      let x = bits[base + w];
+      let x = table[c * W + w];
       while (x !== 0) {
         const b = 31 - Math.clz32(x & -x);
-        counts[(w << 5) + b]++;
+        out[(w << 5) + b] += perClass[c];
         x &= x - 1;
       }
     }
   }
-  return counts;
+  return out;
 }

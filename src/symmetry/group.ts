@@ -11,23 +11,25 @@ const MAX_ORDER = 192;
 export function closeGroup(generators: readonly SymOp[]): SymOp[] | undefined {
   const ops: SymOp[] = [identityOp()];
   const seen = new Set<number>([opKey(ops[0])]);
+  const gens: SymOp[] = [];
   for (const g of generators) {
     const k = opKey(g);
     if (!seen.has(k)) {
       seen.add(k);
       ops.push(g);
+      gens.push(g);
     }
   }
-  // Breadth-first products until nothing new appears.
+  // Every element is a product of generators, so closing under left multiplication by the
+  // generators alone reaches the whole (finite) group: |G| x |generators| products.
   for (let i = 0; i < ops.length; i++) {
-    for (let j = 0; j <= i; j++) {
-      for (const prod of [composeOps(ops[i], ops[j]), composeOps(ops[j], ops[i])]) {
-        const k = opKey(prod);
-        if (seen.has(k)) continue;
-        seen.add(k);
-        ops.push(prod);
-        if (ops.length > MAX_ORDER) return undefined;
-      }
+    for (const g of gens) {
+      const prod = composeOps(g, ops[i]);
+      const k = opKey(prod);
+      if (seen.has(k)) continue;
+      seen.add(k);
+      ops.push(prod);
+      if (ops.length > MAX_ORDER) return undefined;
     }
   }
   return ops;

@@ -70,5 +70,9 @@ export {
   absenceBits,
   absentColumn,
   countAbsentPerSetting,
+  countBrokenPerCondition,
+  classCounts,
+  classifyReflections,
+  type AbsenceClasses,
   testBit,
 } from './catalogue';

@@ -49,20 +49,50 @@ export interface SpaceGroupSetting {
   readonly conditions: readonly Condition[];
 }
 
-class Setting implements SpaceGroupSetting {
-  readonly crystalSystem: CrystalSystem;
-  readonly lattice: string;
-  readonly pointGroup: string;
-  readonly laue: string;
-  readonly centrosymmetric: boolean;
-  readonly sohncke: boolean;
-  enantiomorph?: string;
-  readonly order: number;
+/** What a setting derives from its operations, built on first use. */
+interface Derived {
+  readonly ops: readonly SymOp[];
   readonly primitiveOps: readonly SymOp[];
   readonly centringVectors: readonly Int32Array[];
   readonly rotations: readonly Int32Array[];
+  readonly pointGroup: string;
+  readonly laue: string;
+  readonly crystalSystem: CrystalSystem;
+  readonly centrosymmetric: boolean;
+  readonly sohncke: boolean;
+}
+
+function derive(hm: string, hall: string): Derived {
+  const gens = parseHall(hall);
+  if (!gens.ok) throw new Error(`settings table: ${gens.error.message}`);
+  const g = gens.value;
+  const generators = [...g.centring.map((c) => makeOp([1, 0, 0, 0, 1, 0, 0, 0, 1], c)), ...g.generators];
+  const ops = closeGroup(generators);
+  if (!ops) throw new Error(`settings table: Hall symbol '${hall}' does not close to a space group`);
+  const { primitive, centring } = splitCentring(ops);
+  const rotations = distinctRotations(ops);
+  const pg = classifyPointGroup(rotations);
+  if (!pg) throw new Error(`setting ${hm}: operations do not form a crystallographic point group`);
+  const isInversion = (r: Int32Array) => r[0] === -1 && r[4] === -1 && r[8] === -1 && r[1] === 0 && r[2] === 0 && r[3] === 0 && r[5] === 0 && r[6] === 0 && r[7] === 0;
+  return {
+    ops,
+    primitiveOps: primitive,
+    centringVectors: centring,
+    rotations,
+    pointGroup: pg.symbol,
+    laue: pg.laue,
+    crystalSystem: pg.system,
+    centrosymmetric: rotations.some(isInversion),
+    sohncke: rotations.every((r) => det3(r) === 1),
+  };
+}
+
+/** A table setting: symbols at once, operations and everything derived from them on first use. */
+class Setting implements SpaceGroupSetting {
+  private _d?: Derived;
   private _laueRotations?: Int32Array[];
   private _conditions?: Condition[];
+  readonly lattice: string;
   constructor(
     readonly number: number,
     readonly hm: string,
@@ -70,22 +100,22 @@ class Setting implements SpaceGroupSetting {
     readonly ext: string,
     readonly qualifier: string,
     readonly index: number,
-    readonly ops: readonly SymOp[],
   ) {
-    const { primitive, centring } = splitCentring(ops);
-    this.primitiveOps = primitive;
-    this.centringVectors = centring;
-    this.rotations = distinctRotations(ops);
-    const pg = classifyPointGroup(this.rotations);
-    if (!pg) throw new Error(`setting ${hm}: operations do not form a crystallographic point group`);
-    this.pointGroup = pg.symbol;
-    this.laue = pg.laue;
-    this.crystalSystem = pg.system;
-    this.order = ops.length;
-    this.centrosymmetric = this.rotations.some((r) => r[0] === -1 && r[4] === -1 && r[8] === -1 && r[1] === 0 && r[2] === 0 && r[3] === 0 && r[5] === 0 && r[6] === 0 && r[7] === 0);
-    this.sohncke = this.rotations.every((r) => det3(r) === 1);
     this.lattice = hm[0];
   }
+  private get d(): Derived {
+    return (this._d ??= derive(this.hm, this.hall));
+  }
+  get ops() { return this.d.ops; }
+  get primitiveOps() { return this.d.primitiveOps; }
+  get centringVectors() { return this.d.centringVectors; }
+  get rotations() { return this.d.rotations; }
+  get pointGroup() { return this.d.pointGroup; }
+  get laue() { return this.d.laue; }
+  get crystalSystem() { return this.d.crystalSystem; }
+  get centrosymmetric() { return this.d.centrosymmetric; }
+  get sohncke() { return this.d.sohncke; }
+  get order() { return this.d.ops.length; }
   get laueRotations(): readonly Int32Array[] {
     if (!this._laueRotations) {
       const all = [...this.rotations];
@@ -102,11 +132,17 @@ class Setting implements SpaceGroupSetting {
     }
     return this._laueRotations;
   }
+  get enantiomorph(): string | undefined {
+    return enantiomorphOf(this);
+  }
   get conditions(): readonly Condition[] {
     return (this._conditions ??= deriveConditions(this.ops));
   }
   toString(): string {
     return `${this.hm} (No. ${this.number})`;
+  }
+  toJSON(): object {
+    return { number: this.number, hm: this.hm, hall: this.hall };
   }
 }
 
@@ -114,23 +150,12 @@ let SETTINGS: Setting[] | undefined;
 
 /**
  * Every setting of the table (559, in the order of International Tables Vol. A,
- * Table 4.3.2.1 as tabulated by gemmi), each built from its Hall symbol on first use.
+ * Table 4.3.2.1 as tabulated by gemmi). Symbols are there at once; each setting builds its
+ * group from its Hall symbol when its operations (or anything derived from them) are first read.
  */
 export function allSettings(): readonly SpaceGroupSetting[] {
-  if (SETTINGS) return SETTINGS;
-  const list: Setting[] = [];
-  SETTINGS_DATA.forEach(([number, hm, hall, ext, qualifier], index) => {
-    const gens = parseHall(hall);
-    if (!gens.ok) throw new Error(`settings table: ${gens.error.message}`);
-    const g = gens.value;
-    const generators = [...g.centring.map((c) => makeOp([1, 0, 0, 0, 1, 0, 0, 0, 1], c)), ...g.generators];
-    const ops = closeGroup(generators);
-    if (!ops) throw new Error(`settings table: Hall symbol '${hall}' does not close to a space group`);
-    list.push(new Setting(number, hm, hall, ext, qualifier, index, ops));
-  });
-  SETTINGS = list;
-  linkEnantiomorphs(list);
-  return list;
+  SETTINGS ??= SETTINGS_DATA.map(([number, hm, hall, ext, qualifier], index) => new Setting(number, hm, hall, ext, qualifier, index));
+  return SETTINGS;
 }
 
 /** Order-independent exact key of a set of operations. */
@@ -166,15 +191,11 @@ export function settingFromOps(ops: readonly SymOp[]): SpaceGroupSetting | undef
  * The mirror image of a group (x -> -x) has operations (R, -t). When that set is another
  * type's setting, the two are an enantiomorphic pair (International Tables Vol. A, 8.2.2).
  */
-function linkEnantiomorphs(list: Setting[]): void {
-  const index = new Map<string, Setting>();
-  for (const s of list) if (!index.has(opSetKey(s.ops))) index.set(opSetKey(s.ops), s);
-  for (const s of list) {
-    if (!s.sohncke) continue;
-    const mirrored = s.ops.map((o) => makeOp(o.r, [-o.t[0], -o.t[1], -o.t[2]]));
-    const other = index.get(opSetKey(mirrored));
-    if (other && other.number !== s.number) s.enantiomorph = other.hm;
-  }
+function enantiomorphOf(s: SpaceGroupSetting): string | undefined {
+  if (!s.sohncke) return undefined;
+  const mirrored = s.ops.map((o) => makeOp(o.r, [-o.t[0], -o.t[1], -o.t[2]]));
+  const other = opSetIndex().get(opSetKey(mirrored));
+  return other && other.number !== s.number ? other.hm : undefined;
 }
 
 // ---------------------------------------------------------------------------------------------

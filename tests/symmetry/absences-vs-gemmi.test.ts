@@ -4,6 +4,8 @@ import {
   allSettings,
   breaksCondition,
   buildConditionCatalogue,
+  classifyReflections,
+  countAbsentPerSetting,
   epsilonFactor,
   evaluateConditions,
   isCentric,
@@ -80,6 +82,9 @@ describe('systematic absences of every setting against gemmi (|h|,|k|,|l| <= 8)'
       if (wrong || wrongViaConditions) bad.push(`${s.hm}: ${wrong} differ in absenceBits, ${wrongViaConditions} via evaluateConditions`);
     });
     expect(bad).toEqual([]);
+    // per-setting counts from the absence classes equal gemmi's totals
+    const counts = countAbsentPerSetting(cat, classifyReflections(cat, grid.h, grid.k, grid.l, grid.n));
+    expect(Array.from(counts)).toEqual(fx.settings.map((g) => g.n_absent));
     // the point of the catalogue: far fewer distinct conditions than settings
     expect(cat.conditions.length).toBeLessThan(settings.length);
   });
