@@ -1,8 +1,8 @@
-import { existsSync, realpathSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
-import { basename, dirname, resolve } from 'node:path';
+import { resolve } from 'node:path';
 import type { Command } from '../context';
 import { formatHelp, parseArgs, usageError, type CommandSpec } from '../args';
 import { DATA_OPTIONS, loadReflections } from '../load-data';
+import { checkOutputPath, writeFileAtomically } from '../write-output';
 import { InputError } from '../../core';
 import { writeReflectionCif } from '../../io';
 import { basisDeterminant, formatChangeOfBasis, parseChangeOfBasis, reindexTable } from '../../lattice';
@@ -27,18 +27,6 @@ const spec: CommandSpec = {
   maxPositional: 1,
 };
 
-function sameFile(a: string, b: string): boolean {
-  if (resolve(a) === resolve(b)) return true;
-  if (!existsSync(a) || !existsSync(b)) return false;
-  try {
-    if (realpathSync(a) === realpathSync(b)) return true;
-    const sa = statSync(a), sb = statSync(b);
-    return sa.dev === sb.dev && sa.ino === sb.ino;
-  } catch {
-    return false;
-  }
-}
-
 export const command: Command = {
   spec,
   async run(argv, ctx) {
@@ -53,9 +41,7 @@ export const command: Command = {
     if (!cob.ok) throw cob.error;
     const inPath = resolve(ctx.cwd, file);
     const outPath = resolve(ctx.cwd, out);
-    if (sameFile(inPath, outPath)) throw new InputError('the output file is the input file; Lacuna never overwrites its input', { file: out }, 'Choose another --out name.');
-    if (existsSync(outPath) && statSync(outPath).isDirectory()) throw new InputError('is a directory, not a file', { file: out });
-    if (!existsSync(dirname(outPath))) throw new InputError(`the folder ${dirname(out) || '.'} does not exist`, { file: out });
+    checkOutputPath(outPath, out, [inPath]);
 
     const table = loadReflections(file, args, ctx);
     const res = reindexTable(table, cob.value, { dropNonIntegral: args.flags.has('drop-nonintegral') });
@@ -65,15 +51,7 @@ export const command: Command = {
     const cif = writeReflectionCif(res.value, {
       comments: [`reindexed by lacuna reindex with the change of basis ${text} (new a,b,c in terms of the old; h' = h P)`],
     });
-    // temp file in the same folder, then rename: a reader never sees half a file
-    const tmp = resolve(dirname(outPath), `.${basename(outPath)}.${process.pid}.tmp`);
-    try {
-      writeFileSync(tmp, cif);
-      renameSync(tmp, outPath);
-    } catch (e) {
-      rmSync(tmp, { force: true });
-      throw new InputError(`cannot write the output: ${(e as Error).message}`, { file: out });
-    }
+    writeFileAtomically(outPath, out, cif); // temp file beside it, then rename
     const newWarnings = res.value.meta.warnings.slice(table.meta.warnings.length);
     const summary = {
       input: file,
