@@ -23,6 +23,17 @@ for (const [element, z, v] of FORM_FACTOR_ROWS) {
 // Deuterium scatters X-rays as hydrogen does.
 BY_SYMBOL.set('d', BY_SYMBOL.get('h')!);
 
+/** The four-Gaussian fit holds up to this sin(theta)/lambda (1/angstrom), i.e. d >= 0.25 angstrom. */
+export const FORM_FACTOR_S_MAX = 2;
+
+/** A warning when reflections reach beyond the fit's range, else undefined. */
+export function formFactorRangeWarning(dmin: number): string | undefined {
+  const s = 1 / (2 * dmin);
+  return s > FORM_FACTOR_S_MAX
+    ? `d_min ${dmin} A reaches sin(theta)/lambda = ${s.toFixed(2)} 1/A, beyond the form-factor fit's range (${FORM_FACTOR_S_MAX} 1/A, d >= 0.25 A); values there are extrapolated`
+    : undefined;
+}
+
 /** A parsed `_atom_site_type_symbol`: element plus formal charge (0 for a neutral atom). */
 export interface TypeSymbol {
   readonly element: string;

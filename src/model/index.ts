@@ -3,7 +3,7 @@
  * structure factors, model-against-data comparison and simulated data.
  */
 export * from './crystal-model';
-export { findFormFactor, formFactorAt, formFactorAtStol2, formFactorElements, parseTypeSymbol } from './form-factors';
+export { FORM_FACTOR_S_MAX, formFactorRangeWarning, findFormFactor, formFactorAt, formFactorAtStol2, formFactorElements, parseTypeSymbol } from './form-factors';
 export type { FormFactorCoefficients, TypeSymbol } from './form-factors';
 export { cosSinTurns } from './trig-turns';
 export * from './structure-factors';

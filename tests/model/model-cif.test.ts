@@ -164,3 +164,33 @@ X9 0.01 0.01 0.01 0 0 0
     expect(read('').ok).toBe(false);
   });
 });
+
+describe('model CIF reader: anisotropic B and labels', () => {
+  it('converts _atom_site_aniso_B_ij to U by 1/(8 pi^2) and takes elements from labels', () => {
+    const r = parseModelCif(BASE + `_symmetry_space_group_name_H-M 'P 1'
+loop_
+_atom_site_label
+_atom_site_fract_x
+_atom_site_fract_y
+_atom_site_fract_z
+Cl1 0.1 0.2 0.3
+C2A 0.4 0.2 0.3
+loop_
+_atom_site_aniso_label
+_atom_site_aniso_B_11
+_atom_site_aniso_B_22
+_atom_site_aniso_B_33
+_atom_site_aniso_B_12
+_atom_site_aniso_B_13
+_atom_site_aniso_B_23
+Cl1 1.0 2.0 3.0 0.1 0.2 0.3
+`, 'b.cif');
+    if (!r.ok) throw r.error;
+    const a = r.value.atoms;
+    expect(a.element).toEqual(['Cl', 'C']);
+    expect(a.hasAniso[0]).toBe(1);
+    expect(a.aniso[1]).toBeCloseTo(2 / (8 * Math.PI ** 2), 12);
+    expect(a.uiso[0]).toBeCloseTo(2 / (8 * Math.PI ** 2), 12); // U_eq-like fallback: mean of the diagonal
+    expect(a.uiso[1]).toBe(0);
+  });
+});

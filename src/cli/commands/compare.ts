@@ -2,7 +2,7 @@ import type { Command } from '../context';
 import { formatHelp, parseArgs, numberOption, usageError, type CommandSpec } from '../args';
 import { DATA_OPTIONS, loadReflections } from '../load-data';
 import { cellJson, loadModel, MODEL_BLOCK_OPTION } from '../load-model';
-import { compareModelWithData, prepareModel } from '../../model';
+import { compareModelWithData, formFactorRangeWarning, prepareModel } from '../../model';
 import { formatFloat32 } from '../../io';
 
 const spec: CommandSpec = {
@@ -44,6 +44,10 @@ export const command: Command = {
         warnings.push(`the data's cell (${fmtCell(dc)}) differs from the model's (${fmtCell(model.cell)}); the model's cell is used`);
     }
     if (data.n === 0) throw usageError(`${dataPath} has no reflections to compare with`, 'compare');
+    let maxInvD2 = 0;
+    for (let j = 0; j < data.n; j++) maxInvD2 = Math.max(maxInvD2, model.cell.invDSquared(data.h[j], data.k[j], data.l[j]));
+    const rangeWarning = formFactorRangeWarning(1 / Math.sqrt(maxInvD2));
+    if (rangeWarning) warnings.push(rangeWarning);
     const r = compareModelWithData(prepareModel(model), data, { worst: nWorst });
     if (!r.ok) throw r.error;
     const c = r.value;

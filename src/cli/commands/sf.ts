@@ -1,7 +1,7 @@
 import type { Command } from '../context';
 import { formatHelp, numberOption, parseArgs, usageError, type CommandSpec } from '../args';
 import { cellJson, loadModel, MODEL_BLOCK_OPTION } from '../load-model';
-import { computeStructureFactors, hemisphereIndices, prepareModel } from '../../model';
+import { computeStructureFactors, formFactorRangeWarning, hemisphereIndices, prepareModel } from '../../model';
 
 const spec: CommandSpec = {
   name: 'sf',
@@ -32,6 +32,8 @@ export const command: Command = {
     const hkl = hemisphereIndices(model.cell, dmin);
     if (!hkl.ok) throw usageError(`--dmin ${dmin}: ${hkl.error.message}`, 'sf');
     const { h, k, l } = hkl.value;
+    const rangeWarning = formFactorRangeWarning(dmin);
+    if (rangeWarning) { model.warnings.push(rangeWarning); ctx.err(`warning: ${rangeWarning}\n`); }
     const n = h.length;
     const re = new Float64Array(n), im = new Float64Array(n);
     computeStructureFactors(prepareModel(model), h, k, l, re, im);

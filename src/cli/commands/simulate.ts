@@ -5,7 +5,7 @@ import { checkOutputPath, writeFileAtomically } from '../write-output';
 import type { Command } from '../context';
 import { formatHelp, numberOption, parseArgs, usageError, type CommandSpec } from '../args';
 import { loadModel, MODEL_BLOCK_OPTION } from '../load-model';
-import { simulateData, type SimulationOptions } from '../../model';
+import { formFactorRangeWarning, simulateData, type SimulationOptions } from '../../model';
 
 const spec: CommandSpec = {
   name: 'simulate',
@@ -73,6 +73,8 @@ export const command: Command = {
       source: `lacuna simulate from the model ${basename(modelPath)}`,
       ...parseNoise(args.values.get('noise') ?? ''),
     };
+    const rangeWarning = formFactorRangeWarning(dmin);
+    if (rangeWarning) ctx.err(`warning: ${rangeWarning}\n`);
     const r = simulateData(model, options);
     if (!r.ok) throw new InputError(r.error.message, { file: modelPath }, r.error.hint);
     const { table, scale, absent, violations } = r.value;
