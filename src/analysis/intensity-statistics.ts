@@ -63,11 +63,11 @@ function nzCentricNoisy(z: number, s: number): number {
 
 /**
  * Largest evidence (nats) intensity statistics may give for or against a centre of symmetry:
- * odds of 20:1. Pseudo-centrosymmetric structures, heavy atoms on special positions and
+ * odds of about 7:1. Pseudo-centrosymmetric structures, heavy atoms on special positions and
  * twinning all imitate the other distribution, so these statistics never decide alone
  * (a judgement, in line with common practice).
  */
-export const CENTRIC_LOG_ODDS_CAP = 3;
+export const CENTRIC_LOG_ODDS_CAP = 2;
 
 export const NZ_GRID = [0.05, 0.1, 0.15, 0.2, 0.25, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0] as const;
 
@@ -169,10 +169,10 @@ export function intensityStatistics(
   }
 
   const lTest = lStatistic(table, use, index);
-  // Local-pair statistics away from 1/2 mean the intensities are not Wilson-distributed
-  // (twinning below, translational pseudo-symmetry or pseudo-centring above): the
-  // centric/acentric curves then mislead, so their evidence is halved.
-  if (lTest.pairs >= 100 && Math.abs(lTest.meanAbsL - 0.5) > 0.06) centricLogOdds *= 0.5;
+  // <|L|> well below 1/2 means twinning, which makes any structure look more acentric:
+  // the centric/acentric curves then mislead, so their evidence is halved. (Above 1/2 is
+  // expected for centric data, so no conclusion is drawn there.)
+  if (lTest.pairs >= 100 && lTest.meanAbsL < 0.44) centricLogOdds *= 0.5;
   return {
     n,
     meanAbsE2Minus1: n ? sAbs / n : NaN,

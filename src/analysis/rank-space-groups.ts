@@ -613,7 +613,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
       warnings.push(`${c.nWeakViolations} reflection${c.nWeakViolations > 1 ? 's' : ''} forbidden by ${condList[id].text} show${c.nWeakViolations > 1 ? '' : 's'} 2-6 sigma: weak violations of the kind multiple diffraction produces`);
   }
   const missingTop = topIds.filter((id) => abs.conditions[id].forbiddenClassMissing);
-  const absencesRemoved = missingTop.length > 0 && missingTop.every((id) => abs.conditions[id].nZone >= 10);
+  const absencesRemoved = missingTop.some((id) => abs.conditions[id].nZone >= 10);
   if (absencesRemoved)
     warnings.push(
       'absences appear to have been removed from this file: no reflection at all was found where ' +
