@@ -36,6 +36,11 @@ _cell_angle_beta 100.0(2)
 _cell_angle_gamma 90
 `;
 
+const anisoLoop = (letter: 'U' | 'B') =>
+  ['loop_', '_atom_site_aniso_label', ...['11', '22', '33', '12', '13', '23'].map((ij) => `_atom_site_aniso_${letter}_${ij}`)].join('\n') + '\n';
+const ANISO_U = anisoLoop('U');
+const ANISO_B = anisoLoop('B');
+
 function read(text: string) {
   return parseModelCif(text, 'test.cif');
 }
@@ -150,15 +155,7 @@ C1 0.1 0.2 0.3
     expect(!badNum.ok && badNum.error.describe()).toMatch(/test\.cif:14:\d+: _atom_site_fract_y of C1: 'abc' is not a number/);
     const refl = read(BASE + `loop_\n_refln_index_h\n_refln_index_k\n_refln_index_l\n1 2 3\n`);
     expect(!refl.ok && refl.error.describe()).toMatch(/no atom sites.*reflection file/);
-    const aniso = read(BASE + `_symmetry_space_group_name_H-M 'P 1'\n` + atoms + `loop_
-_atom_site_aniso_label
-_atom_site_aniso_U_11
-_atom_site_aniso_U_22
-_atom_site_aniso_U_33
-_atom_site_aniso_U_12
-_atom_site_aniso_U_13
-_atom_site_aniso_U_23
-X9 0.01 0.01 0.01 0 0 0
+    const aniso = read(BASE + `_symmetry_space_group_name_H-M 'P 1'\n` + atoms + ANISO_U + `X9 0.01 0.01 0.01 0 0 0
 `);
     expect(!aniso.ok && aniso.error.describe()).toMatch(/X9, which is not among the atom sites/);
     expect(read('').ok).toBe(false);
@@ -175,15 +172,7 @@ _atom_site_fract_y
 _atom_site_fract_z
 Cl1 0.1 0.2 0.3
 C2A 0.4 0.2 0.3
-loop_
-_atom_site_aniso_label
-_atom_site_aniso_B_11
-_atom_site_aniso_B_22
-_atom_site_aniso_B_33
-_atom_site_aniso_B_12
-_atom_site_aniso_B_13
-_atom_site_aniso_B_23
-Cl1 1.0 2.0 3.0 0.1 0.2 0.3
+` + ANISO_B + `Cl1 1.0 2.0 3.0 0.1 0.2 0.3
 `, 'b.cif');
     if (!r.ok) throw r.error;
     const a = r.value.atoms;
