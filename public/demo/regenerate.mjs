@@ -58,7 +58,11 @@ for (const s of SAMPLES) {
 const manifest = {
   note: 'Invented data: the lab, the samples and the structures are made up; the files were computed by lacuna simulate.',
   default: SAMPLES[0].file,
-  samples: SAMPLES.map(({ args, ...rest }) => ({ ...rest, simulate: `lacuna simulate ${rest.model} --out ${rest.file} ${args.join(' ')}` })),
+  samples: SAMPLES.map(({ args, ...rest }) => ({
+    ...rest,
+    simulate: `lacuna simulate ${rest.model} --out ${rest.file} ${args.join(' ')}`,
+    simulate_args: ['simulate', rest.model, '--out', rest.file, ...args],
+  })),
 };
 writeFileSync(resolve(here, 'demo.json'), JSON.stringify(manifest, null, 2) + '\n');
 console.log('wrote demo.json');
