@@ -1,6 +1,6 @@
 import { ok, type CellParams, type Result } from '../core';
 import { makeCell } from './cell';
-import { cellFromMetric, changeOfBasisFromMatrix, transformMetric, type ChangeOfBasis } from './change-of-basis';
+import { cellFromMetric, changeOfBasisFromMatrix, gcd, transformMetric, type ChangeOfBasis } from './change-of-basis';
 import { niggliReduceMetric, NIGGLI_RELATIVE_EPSILON, type NiggliResult } from './niggli';
 
 /**
@@ -103,13 +103,6 @@ const det3 = (a: Vec, b: Vec, c: Vec) => dot(a, cross(b, c));
 const columns = (a: Vec, b: Vec, c: Vec): Mat => [a[0], b[0], c[0], a[1], b[1], c[1], a[2], b[2], c[2]];
 const quad = (g: ArrayLike<number>, u: Vec, v: Vec = u) =>
   u[0] * (g[0] * v[0] + g[1] * v[1] + g[2] * v[2]) + u[1] * (g[3] * v[0] + g[4] * v[1] + g[5] * v[2]) + u[2] * (g[6] * v[0] + g[7] * v[1] + g[8] * v[2]);
-
-function gcd(a: number, b: number): number {
-  a = Math.abs(a);
-  b = Math.abs(b);
-  while (b) [a, b] = [b, a % b];
-  return a;
-}
 
 function primitive(v: Vec): Vec {
   const g = gcd(gcd(v[0], v[1]), v[2]) || 1;
