@@ -7,13 +7,18 @@
  * unusual numbers fall back to the built-in Number().
  */
 
-/** Outcome of the last parseByteNumber call. */
+/** Outcomes of a parse (numberScan.status). */
 export const NUMBER_OK = 0;
 export const NUMBER_BAD = 1;
 /** `nan`, `inf`, `infinity` (any case, signed), or a value that overflows. */
 export const NUMBER_NONFINITE = 2;
 
-export let numberStatus = NUMBER_OK;
+/**
+ * Outcome of the last parse: `status` (NUMBER_*) and, for scanByteNumber, `end`
+ * (where the token stopped). A constant object, not module-level `let`s, so
+ * the hot loop reads plain properties.
+ */
+export const numberScan = { status: NUMBER_OK, end: 0 };
 
 const POW10 = new Float64Array(23);
 for (let j = 0, p = 1; j < 23; j++, p *= 10) POW10[j] = p;
@@ -30,19 +35,16 @@ function slowParse(bytes: Uint8Array, start: number, end: number): number {
   let text = latin1(bytes, start, end);
   const paren = text.indexOf('(');
   if (paren > 0 && text.endsWith(')') && /^\d+$/.test(text.slice(paren + 1, -1))) text = text.slice(0, paren);
-  if (NONFINITE_WORD.test(text)) { numberStatus = NUMBER_NONFINITE; return NaN; }
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(text)) { numberStatus = NUMBER_BAD; return NaN; }
+  if (NONFINITE_WORD.test(text)) { numberScan.status = NUMBER_NONFINITE; return NaN; }
+  if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(text)) { numberScan.status = NUMBER_BAD; return NaN; }
   const v = Number(text);
-  numberStatus = Number.isFinite(v) ? NUMBER_OK : NUMBER_NONFINITE;
+  numberScan.status = Number.isFinite(v) ? NUMBER_OK : NUMBER_NONFINITE;
   return v;
 }
 
-/** Where the token read by the last scanByteNumber call ends (first blank byte or `limit`). */
-export let numberEnd = 0;
-
 /**
  * Parse the number that starts at bytes[start] and runs to the next blank
- * (space, tab, CR, LF) or `limit`, in one pass; sets `numberStatus` and `numberEnd`.
+ * (space, tab, CR, LF) or `limit`, in one pass; sets `numberScan`.
  */
 export function scanByteNumber(bytes: Uint8Array, start: number, limit: number): number {
   let j = start;
@@ -67,14 +69,14 @@ export function scanByteNumber(bytes: Uint8Array, start: number, limit: number):
   }
   // the common case: plain decimal followed by a blank
   if (digits > 0 && digits <= 15 && (j >= limit || bytes[j] <= 32)) {
-    numberEnd = j;
-    numberStatus = NUMBER_OK;
+    numberScan.end = j;
+    numberScan.status = NUMBER_OK;
     const v = frac === 0 ? mant : mant / POW10[frac];
     return neg ? -v : v;
   }
   let end = j;
   while (end < limit && bytes[end] > 32) end++;
-  numberEnd = end;
+  numberScan.end = end;
   if (digits === 0) return slowParse(bytes, start, end);
   let exp = 0;
   if (j < end && (bytes[j] | 32) === 101 /* e */) {
@@ -87,15 +89,15 @@ export function scanByteNumber(bytes: Uint8Array, start: number, limit: number):
       if (c < 0 || c > 9) break;
       exp = exp * 10 + c; edigits++; j++;
     }
-    if (edigits === 0) { numberStatus = NUMBER_BAD; return NaN; }
+    if (edigits === 0) { numberScan.status = NUMBER_BAD; return NaN; }
     if (eneg) exp = -exp;
   }
   if (j < end) {
     // only a standard uncertainty `(digits)` may follow
-    if (bytes[j] !== 40 /* ( */ || bytes[end - 1] !== 41 /* ) */ || end - j < 3) { numberStatus = NUMBER_BAD; return NaN; }
+    if (bytes[j] !== 40 /* ( */ || bytes[end - 1] !== 41 /* ) */ || end - j < 3) { numberScan.status = NUMBER_BAD; return NaN; }
     for (let q = j + 1; q < end - 1; q++) {
       c = bytes[q] - 48;
-      if (c < 0 || c > 9) { numberStatus = NUMBER_BAD; return NaN; }
+      if (c < 0 || c > 9) { numberScan.status = NUMBER_BAD; return NaN; }
     }
   }
   if (digits > 15) return slowParse(bytes, start, j);
@@ -105,13 +107,13 @@ export function scanByteNumber(bytes: Uint8Array, start: number, limit: number):
   else if (e < 0 && e >= -22) v = mant / POW10[-e];
   else if (e > 0 && e <= 22) v = mant * POW10[e];
   else return slowParse(bytes, start, j);
-  numberStatus = Number.isFinite(v) ? NUMBER_OK : NUMBER_NONFINITE;
+  numberScan.status = Number.isFinite(v) ? NUMBER_OK : NUMBER_NONFINITE;
   return neg ? -v : v;
 }
 
-/** Parse exactly bytes[start, end) as a decimal number; check `numberStatus` after the call. */
+/** Parse exactly bytes[start, end) as a decimal number; check `numberScan.status` after the call. */
 export function parseByteNumber(bytes: Uint8Array, start: number, end: number): number {
   const v = scanByteNumber(bytes, start, end);
-  if (numberEnd !== end) { numberStatus = NUMBER_BAD; return NaN; }
+  if (numberScan.end !== end) { numberScan.status = NUMBER_BAD; return NaN; }
   return v;
 }

@@ -3,7 +3,7 @@ import { makeCell } from '../lattice';
 import { parseCifNumber } from './cif-number';
 import { isReflectionLoop, normaliseTag, planCifColumns } from './reflection-columns';
 import { AMPLITUDE_WARNING, RowSink } from './row-sink';
-import { numberEnd, scanByteNumber } from './byte-number';
+import { numberScan, scanByteNumber } from './byte-number';
 import type { ReadReflectionsOptions } from './read-options';
 
 /**
@@ -174,7 +174,7 @@ function readLoopRows(sc: ByteCifScanner, w: number, roles: Int8Array, sink: Row
       if (role !== 0 && c >= 43 && c <= 57 && !(c === 46 && (pos + 1 >= n || b[pos + 1] <= 32))) {
         // numbers: parse while scanning, one pass (+ , - . / and digits start here)
         const x = scanByteNumber(b, pos, n);
-        pos = numberEnd;
+        pos = numberScan.end;
         sink.numberField(role, x);
       } else {
         const start = pos;

@@ -1,4 +1,4 @@
-import { NUMBER_BAD, NUMBER_OK, numberStatus, parseByteNumber } from './byte-number';
+import { NUMBER_BAD, NUMBER_OK, numberScan, parseByteNumber } from './byte-number';
 import { ROLE_H, ROLE_K, ROLE_L, ROLE_SIGMA, ROLE_VALUE } from './reflection-columns';
 import { ReflectionTableBuilder, recordRejection, type ReflectionMeta } from '../core';
 
@@ -51,10 +51,10 @@ export class RowSink {
     else this.numberField(role, parseByteNumber(b, start, end));
   }
 
-  /** Store x, just returned by a byte-number parser (numberStatus tells whether it is one). */
+  /** Store x, just returned by a byte-number parser (numberScan.status tells whether it is one). */
   numberField(role: number, x: number): void {
-    if (numberStatus !== NUMBER_OK) {
-      const st = numberStatus === NUMBER_BAD ? FIELD_BAD : FIELD_NONFINITE;
+    if (numberScan.status !== NUMBER_OK) {
+      const st = numberScan.status === NUMBER_BAD ? FIELD_BAD : FIELD_NONFINITE;
       if (this.status < st) this.status = st;
     } else this.row[role] = x;
   }

@@ -1,6 +1,6 @@
 import { emptyMeta, fail, ok, type ReflectionTable, type Result } from '../core';
 import { makeCell } from '../lattice';
-import { NUMBER_OK, numberStatus, parseByteNumber } from './byte-number';
+import { NUMBER_OK, numberScan, parseByteNumber } from './byte-number';
 import { planTextColumns } from './reflection-columns';
 import { AMPLITUDE_WARNING, REJECT_TOO_FEW, REJECT_TOO_MANY, RowSink } from './row-sink';
 import type { ReadReflectionsOptions } from './read-options';
@@ -80,7 +80,7 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
       for (let j = 0; j < Math.min(count, starts.length); j++) {
         names.push(latin1.decode(b.subarray(starts[j], ends[j])));
         parseByteNumber(b, starts[j], ends[j]);
-        if (numberStatus !== NUMBER_OK) numeric = false;
+        if (numberScan.status !== NUMBER_OK) numeric = false;
       }
       if (numeric && !opts.columns)
         return fail('no header row naming the columns', { file, line, column: 1 }, 'Add a first line such as "h k l I sigI", or give --columns h,k,l,i,sigi.');
