@@ -45,12 +45,15 @@ export interface TypeSymbol {
  * Returns undefined when the text is not of that form or names no element in the table.
  */
 export function parseTypeSymbol(text: string): TypeSymbol | undefined {
-  const m = /^([A-Za-z]{1,2})(?:(\d*)([+-]))?$/.exec(text.trim());
+  // `O2-` (the CIF form) and the occasional `O-2`
+  const m = /^([A-Za-z]{1,2})(?:(\d*)([+-])|([+-])(\d+))?$/.exec(text.trim());
   if (!m) return undefined;
   const coefs = BY_SYMBOL.get(m[1].toLowerCase());
   if (!coefs) return undefined;
-  const magnitude = m[3] ? (m[2] ? Number(m[2]) : 1) : 0;
-  return { element: coefs.element, charge: m[3] === '-' ? -magnitude : magnitude };
+  const sign = m[3] ?? m[4];
+  const digits = m[2] || m[5];
+  const magnitude = sign ? (digits ? Number(digits) : 1) : 0;
+  return { element: coefs.element, charge: sign === '-' ? -magnitude : magnitude };
 }
 
 /** Coefficients of an element symbol (case-insensitive, 'D' for deuterium), or undefined. */

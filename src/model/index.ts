@@ -7,6 +7,7 @@ export { FORM_FACTOR_S_MAX, formFactorRangeWarning, findFormFactor, formFactorAt
 export type { FormFactorCoefficients, TypeSymbol } from './form-factors';
 export { cosSinTurns } from './trig-turns';
 export * from './structure-factors';
+export { SPECIAL_POSITION_TOLERANCE, siteSymmetryOrder, closestDistinctImage, imageDistance } from './site-symmetry';
 export { parseModelCif } from './model-cif';
 export type { ModelReadOptions } from './model-cif';
 export * from './compare-data';

@@ -4,6 +4,7 @@ import { makeCell } from '../lattice';
 import { closeGroup, findSetting, parseTriplet, type SymOp } from '../symmetry';
 import { atomSitesFromList, type AtomInput, type CrystalModel } from './crystal-model';
 import { findFormFactor, parseTypeSymbol } from './form-factors';
+import { closestDistinctImage } from './site-symmetry';
 
 /**
  * Reader for trial structures in CIF 1.1 (IUCr core dictionary):
@@ -149,7 +150,25 @@ function readBlock(block: CifBlock, source: string): CrystalModel {
   }
   if (noU.length) warnings.push(`no displacement parameter for ${noU.slice(0, 8).join(', ')}${noU.length > 8 ? ` and ${noU.length - 8} more` : ''}: U = 0 used`);
   if (atoms.length === 0) throw new InputError('the model has no atoms', { file: source, line: block.line });
-  return { source, cell: cellResult.value, ops, spaceGroupName: name, atoms: atomSitesFromList(atoms), warnings };
+  const model = { source, cell: cellResult.value, ops, spaceGroupName: name, atoms: atomSitesFromList(atoms), warnings };
+  warnNearSpecialPositions(model);
+  return model;
+}
+
+/** Closer than this (angstrom) to its own symmetry image, an atom off a special position is almost surely a mistake. */
+const NEAR_IMAGE = 0.5;
+
+/**
+ * An atom a little off a special position overlaps its own images (the structure factor then counts it
+ * several times). Real files have it from rounded coordinates or disorder; say so instead of guessing.
+ */
+function warnNearSpecialPositions(model: CrystalModel): void {
+  const { atoms } = model;
+  for (let j = 0; j < atoms.n; j++) {
+    const closest = closestDistinctImage(model, atoms.x[j], atoms.y[j], atoms.z[j]);
+    if (closest < NEAR_IMAGE)
+      model.warnings.push(`${atoms.label[j]} lies ${closest.toFixed(2)} A from its own symmetry image: close to, but not on, a special position (counted as a general position)`);
+  }
 }
 
 function readAniso(

@@ -1,5 +1,6 @@
 import { MODEL_TDEN, type CrystalModel } from './crystal-model';
 import { findFormFactor, type FormFactorCoefficients } from './form-factors';
+import { siteSymmetryOrder } from './site-symmetry';
 import type { UnitCell } from '../lattice';
 import { COS_TABLE, SIN_TABLE, TURN_TABLE_SIZE, TURN_TABLE_STEP } from './trig-turns';
 
@@ -12,9 +13,6 @@ import { COS_TABLE, SIN_TABLE, TURN_TABLE_SIZE, TURN_TABLE_STEP } from './trig-t
  * anisotropic displacement, U*_ij = U_ij a*_i a*_j. Sign convention exp(+2 pi i h.x).
  * Amplitudes in electrons, no anomalous scattering.
  */
-
-/** Distance (angstrom) within which a symmetry image counts as the atom itself (special position). */
-export const SPECIAL_POSITION_TOLERANCE = 0.02;
 
 /** The model in the form the kernel reads: flat typed arrays, computed once per model. */
 export interface PreparedModel {
@@ -41,22 +39,6 @@ export interface PreparedModel {
   readonly types: readonly FormFactorCoefficients[];
   /** Reciprocal metric G* (row-major 3x3, 1/angstrom^2): (sin(theta)/lambda)^2 = h G* h^T / 4. */
   readonly gstar: Float64Array;
-}
-
-/** Order of the site symmetry of fractional position (x, y, z): operations mapping it onto itself modulo lattice translations. */
-export function siteSymmetryOrder(model: Pick<CrystalModel, 'cell' | 'ops'>, x: number, y: number, z: number, tolerance = SPECIAL_POSITION_TOLERANCE): number {
-  const g = model.cell.metric;
-  let order = 0;
-  for (const op of model.ops) {
-    const r = op.r, t = op.t;
-    let dx = r[0] * x + r[1] * y + r[2] * z + t[0] / MODEL_TDEN - x;
-    let dy = r[3] * x + r[4] * y + r[5] * z + t[1] / MODEL_TDEN - y;
-    let dz = r[6] * x + r[7] * y + r[8] * z + t[2] / MODEL_TDEN - z;
-    dx -= Math.round(dx); dy -= Math.round(dy); dz -= Math.round(dz);
-    const d2 = g[0] * dx * dx + g[4] * dy * dy + g[8] * dz * dz + 2 * (g[1] * dx * dy + g[2] * dx * dz + g[5] * dy * dz);
-    if (d2 <= tolerance * tolerance) order++;
-  }
-  return Math.max(order, 1);
 }
 
 /** Flatten a model for the kernel. Throws only on an element missing from the table (the reader checks first). */

@@ -183,3 +183,24 @@ C2A 0.4 0.2 0.3
     expect(a.uiso[1]).toBe(0);
   });
 });
+
+describe('model CIF reader: near-special positions and charge forms', () => {
+  it('warns about an atom a little off a special position and reads O-2 as O2-', () => {
+    const r = parseModelCif(BASE + `_symmetry_space_group_name_H-M 'P -1'
+loop_
+_atom_site_label
+_atom_site_type_symbol
+_atom_site_fract_x
+_atom_site_fract_y
+_atom_site_fract_z
+Fe1 Fe 0.02 0.0 0.0
+O1 O-2 0.3 0.2 0.1
+Fe2 Fe 0.5 0.5 0.5
+`, 'n.cif');
+    if (!r.ok) throw r.error;
+    expect(Array.from(r.value.atoms.charge)).toEqual([0, -2, 0]);
+    const w = r.value.warnings.join('\n');
+    expect(w).toMatch(/Fe1 lies 0\.20 A from its own symmetry image/); // 2 x 0.02 x a(5 A) = 0.20 A
+    expect(w).not.toMatch(/Fe2 lies/); // exactly on the inversion centre
+  });
+});
