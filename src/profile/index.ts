@@ -4,3 +4,4 @@ export {
   DEFAULT_PROFILE, WAVELENGTHS, isObserved, describeProfile,
 } from './lab-profile';
 export { PROFILE_FORMAT_VERSION, parseProfile } from './parse-profile';
+export { formatReflectionText } from './text-export';

@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { runCli } from '../../src/cli';
 import { readReflections } from '../../src/io';
 import { parseChangeOfBasis, reindexTable } from '../../src/lattice';
-import { realdata } from '../helpers/paths';
+import { realdata, REPO_ROOT } from '../helpers/paths';
 
 function capture(cwd = process.cwd()) {
   const o = { out: '', err: '' };
@@ -89,5 +89,27 @@ describe('lacuna reindex', () => {
     expect(doc.left_out).toBeGreaterThan(0);
     expect(doc.reflections_in).toBe(doc.reflections_out + doc.left_out);
     expect(doc.warnings.join()).toMatch(/left out/);
+  });
+});
+
+describe('lacuna reindex to the lab\'s text export', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'lacuna-reindex-text-'));
+  const input = realdata('cod-1560875.cif');
+  it('writes the profile\'s column names and delimiter, and the text reads back to the same numbers', async () => {
+    const out = join(dir, 'export.csv');
+    const c = capture(REPO_ROOT);
+    expect(await runCli(['reindex', input, '--transform', 'a,b,a+c', '--out', out, '--profile', 'public/profiles/fernbrook-copper-source.json'], c.ctx)).toBe(0);
+    const text = readFileSync(out, 'utf8');
+    const lines = text.split('\n').filter((x) => x && !x.startsWith('#'));
+    expect(lines[0]).toBe('H,K,L,I_obs,sigma_I'); // the names in fernbrook-copper-source.json
+    const back = readReflections(new Uint8Array(readFileSync(out)), { source: out, columns: ['h', 'k', 'l', 'i', 'sigi'] });
+    if (!back.ok) throw back.error;
+    const cif = join(dir, 'same.cif');
+    expect(await runCli(['reindex', input, '--transform', 'a,b,a+c', '--out', cif], capture().ctx)).toBe(0);
+    const ref = read(cif);
+    expect(back.value.n).toBe(ref.n);
+    expect(Array.from(back.value.l)).toEqual(Array.from(ref.l));
+    expect(Array.from(back.value.i)).toEqual(Array.from(ref.i));
+    expect(Array.from(back.value.sigma)).toEqual(Array.from(ref.sigma));
   });
 });

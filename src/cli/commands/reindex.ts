@@ -1,10 +1,12 @@
-import { resolve } from 'node:path';
+import { extname, resolve } from 'node:path';
 import type { Command } from '../context';
 import { formatHelp, parseArgs, usageError, type CommandSpec } from '../args';
 import { DATA_OPTIONS, loadReflections } from '../load-data';
 import { checkOutputPath, writeFileAtomically } from '../write-output';
 import { InputError } from '../../core';
 import { writeReflectionCif } from '../../io';
+import { formatReflectionText } from '../../profile';
+import { activeProfile } from '../profile-option';
 import { basisDeterminant, formatChangeOfBasis, parseChangeOfBasis, reindexTable } from '../../lattice';
 
 const spec: CommandSpec = {
@@ -13,7 +15,7 @@ const spec: CommandSpec = {
   usage: 'reindex FILE --transform a,b,-a-c --out FILE.cif [--drop-nonintegral]',
   options: [
     { name: 'transform', value: true, placeholder: 'a,b,-a-c', help: 'new a,b,c in terms of the old (International Tables notation), or the 9 elements of P row by row' },
-    { name: 'out', value: true, placeholder: 'FILE.cif', help: 'output CIF reflection file (written atomically; never the input file)' },
+    { name: 'out', value: true, placeholder: 'FILE.cif', help: 'output file, written atomically and never the input: CIF, or the lab\'s text export for .txt/.csv/.tsv' },
     { name: 'drop-nonintegral', value: false, help: 'leave out (and count) reflections whose new indices are not integers, instead of stopping' },
     ...DATA_OPTIONS,
   ],
@@ -22,6 +24,8 @@ const spec: CommandSpec = {
     'a C-centred cell to its primitive cell: --transform 1/2a+1/2b,-1/2a+1/2b,c (reflections that break the',
     'centring would get fractional indices; they are refused unless --drop-nonintegral).',
     'Intensities and sigmas are copied unchanged; a determinant of -1 is allowed but warned about (the hand changes).',
+    'An --out name ending in .txt, .csv or .tsv writes delimited text with the column names of the lab profile',
+    '(--profile; .csv uses commas, .tsv tabs, .txt the profile\'s delimiter); anything else writes CIF 1.1.',
   ].join('\n'),
   minPositional: 1,
   maxPositional: 1,
@@ -48,10 +52,14 @@ export const command: Command = {
     if (!res.ok) throw new InputError(res.error.message, res.error.location.file ? res.error.location : { file }, res.error.hint);
     const text = formatChangeOfBasis(cob.value);
     const det = basisDeterminant(cob.value);
-    const cif = writeReflectionCif(res.value, {
-      comments: [`reindexed by lacuna reindex with the change of basis ${text} (new a,b,c in terms of the old; h' = h P)`],
-    });
-    writeFileAtomically(outPath, out, cif); // temp file beside it, then rename
+    const note = `reindexed by lacuna reindex with the change of basis ${text} (new a,b,c in terms of the old; h' = h P)`;
+    const ext = extname(out).toLowerCase();
+    const delimiter = ext === '.csv' ? 'comma' : ext === '.tsv' ? 'tab' : ext === '.txt' ? undefined : null;
+    const c = res.value.meta.cell;
+    const body = delimiter === null
+      ? writeReflectionCif(res.value, { comments: [note] })
+      : formatReflectionText(res.value, activeProfile(ctx), delimiter, [note, ...(c ? [`cell ${c.a} ${c.b} ${c.c} ${c.alpha} ${c.beta} ${c.gamma}`] : [])]);
+    writeFileAtomically(outPath, out, body); // temp file beside it, then rename
     const newWarnings = res.value.meta.warnings.slice(table.meta.warnings.length);
     const summary = {
       input: file,
