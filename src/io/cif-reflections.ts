@@ -199,15 +199,19 @@ function readLoopRows(sc: ByteCifScanner, w: number, roles: Int8Array, sink: Row
 /** Values of a loop we do not read; the first row's header items (cell, wavelength) are kept. */
 function skipLoopRows(sc: ByteCifScanner, tags: readonly string[], block: BlockInfo | undefined): string {
   const w = tags.length;
-  let count = 0;
+  let count = 0, lastLine = sc.line, lastCol = 1;
   while (sc.next() === T_VALUE) {
+    lastLine = sc.tline; lastCol = sc.tcol;
     const tag = tags[count % w];
     if (count < w && block && HEADER_TAGS.has(tag) && !block.items.has(tag))
       block.items.set(tag, { start: sc.start, end: sc.end, vkind: sc.vkind, line: sc.tline });
     count++;
   }
   if (sc.kind === T_ERROR) return sc.error;
-  if (count % w !== 0) return `loop has ${count} values for ${w} tags: the last row is incomplete`;
+  if (count % w !== 0) {
+    sc.tline = lastLine; sc.tcol = lastCol;
+    return `loop has ${count} values for ${w} tags: the last row is incomplete`;
+  }
   sc.rewind();
   return '';
 }

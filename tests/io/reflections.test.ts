@@ -169,6 +169,9 @@ describe('CIF reflection loops', () => {
       'loop_', '_refln_index_h', '_refln_index_k', '_refln_index_l', '_refln_intensity_meas', '_refln_intensity_sigma', '1 2 3 4 5'].join('\n'));
     expect(e.message).toMatch(/cell in the file is impossible: cell angle beta = 190/);
     expect(e.location.line).toBe(2);
+    e = readError('data_e\nloop_\n_atom_site_label\n_atom_site_x\nC1 0.5\nO2\n\nloop_\n_refln_index_h\n');
+    expect(e.message).toMatch(/loop has 3 values for 2 tags/);
+    expect(e.location).toMatchObject({ line: 6, column: 1 });
     e = readError('data_e\n_a 1\n_b\n');
     expect(e.message).toMatch(/'_b' has no value/);
     expect(e.location.line).toBe(3);
