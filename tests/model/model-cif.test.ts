@@ -38,6 +38,8 @@ _cell_angle_gamma 90
 
 const anisoLoop = (letter: 'U' | 'B') =>
   ['loop_', '_atom_site_aniso_label', ...['11', '22', '33', '12', '13', '23'].map((ij) => `_atom_site_aniso_${letter}_${ij}`)].join('\n') + '\n';
+const ATOMS_PLAIN = ['loop_', '_atom_site_label', '_atom_site_fract_x', '_atom_site_fract_y', '_atom_site_fract_z'].join('\n') + '\n';
+const ATOMS_TYPED = ATOMS_PLAIN.replace('_atom_site_label\n', '_atom_site_label\n_atom_site_type_symbol\n');
 const ANISO_U = anisoLoop('U');
 const ANISO_B = anisoLoop('B');
 
@@ -51,13 +53,7 @@ describe('model CIF reader: values, symmetry sources, errors', () => {
 _symmetry_equiv_pos_as_xyz
 x,y,z
 -x,-y,-z
-loop_
-_atom_site_label
-_atom_site_type_symbol
-_atom_site_fract_x
-_atom_site_fract_y
-_atom_site_fract_z
-_atom_site_B_iso_or_equiv
+` + ATOMS_TYPED + `_atom_site_B_iso_or_equiv
 _atom_site_occupancy
 Fe1 Fe3+ 0.1234(5) 0.25 0.5(2) 1.5791(3) 0.5
 O1 O2- 0.3 0.4 0.1 ? ?
@@ -78,12 +74,7 @@ O1 O2- 0.3 0.4 0.1 ? ?
 
   it('takes the symmetry from a Hall symbol and completes a list that is not a group', () => {
     const hall = read(BASE + `_space_group_name_Hall '-P 2ybc'
-loop_
-_atom_site_label
-_atom_site_fract_x
-_atom_site_fract_y
-_atom_site_fract_z
-C1 0.1 0.2 0.3
+` + ATOMS_PLAIN + `C1 0.1 0.2 0.3
 `);
     if (!hall.ok) throw hall.error;
     expect(hall.value.ops.length).toBe(4);
@@ -92,13 +83,7 @@ C1 0.1 0.2 0.3
 _space_group_symop_operation_xyz
 '-x,y+1/2,-z+1/2'
 '-x,-y,-z'
-loop_
-_atom_site_label
-_atom_site_type_symbol
-_atom_site_fract_x
-_atom_site_fract_y
-_atom_site_fract_z
-C1 C 0.1 0.2 0.3
+` + ATOMS_TYPED + `C1 C 0.1 0.2 0.3
 `);
     if (!partial.ok) throw partial.error;
     expect(partial.value.ops.length).toBe(4);
@@ -107,13 +92,7 @@ C1 C 0.1 0.2 0.3
 
   it('reports an unknown element with line and column', () => {
     const r = read(BASE + `_symmetry_space_group_name_H-M 'P 1'
-loop_
-_atom_site_label
-_atom_site_type_symbol
-_atom_site_fract_x
-_atom_site_fract_y
-_atom_site_fract_z
-C1 C 0.1 0.2 0.3
+` + ATOMS_TYPED + `C1 C 0.1 0.2 0.3
 Q1 Qq 0.1 0.2 0.3
 `);
     expect(r.ok).toBe(false);
@@ -126,12 +105,7 @@ Q1 Qq 0.1 0.2 0.3
 _space_group_symop_operation_xyz
 'x,y,z'
 'x,y,w'
-loop_
-_atom_site_label
-_atom_site_fract_x
-_atom_site_fract_y
-_atom_site_fract_z
-C1 0.1 0.2 0.3
+` + ATOMS_PLAIN + `C1 0.1 0.2 0.3
 `);
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.error.describe()).toMatch(/^test\.cif:11:\d+: .*x,y,w/);
@@ -165,12 +139,7 @@ C1 0.1 0.2 0.3
 describe('model CIF reader: anisotropic B and labels', () => {
   it('converts _atom_site_aniso_B_ij to U by 1/(8 pi^2) and takes elements from labels', () => {
     const r = parseModelCif(BASE + `_symmetry_space_group_name_H-M 'P 1'
-loop_
-_atom_site_label
-_atom_site_fract_x
-_atom_site_fract_y
-_atom_site_fract_z
-Cl1 0.1 0.2 0.3
+` + ATOMS_PLAIN + `Cl1 0.1 0.2 0.3
 C2A 0.4 0.2 0.3
 ` + ANISO_B + `Cl1 1.0 2.0 3.0 0.1 0.2 0.3
 `, 'b.cif');
@@ -187,13 +156,7 @@ C2A 0.4 0.2 0.3
 describe('model CIF reader: near-special positions and charge forms', () => {
   it('warns about an atom a little off a special position and reads O-2 as O2-', () => {
     const r = parseModelCif(BASE + `_symmetry_space_group_name_H-M 'P -1'
-loop_
-_atom_site_label
-_atom_site_type_symbol
-_atom_site_fract_x
-_atom_site_fract_y
-_atom_site_fract_z
-Fe1 Fe 0.02 0.0 0.0
+` + ATOMS_TYPED + `Fe1 Fe 0.02 0.0 0.0
 O1 O-2 0.3 0.2 0.1
 Fe2 Fe 0.5 0.5 0.5
 `, 'n.cif');
