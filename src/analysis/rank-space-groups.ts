@@ -185,7 +185,7 @@ function findChangeToStandard(s: SpaceGroupSetting, standard: SpaceGroupSetting)
     const ops = [];
     for (const o of s.ops) {
       const r = changeBasisOp(o, P, p);
-      if (!r.ok) return false;
+      if (!r.ok || r.value.r.some((v) => v < -2 || v > 2)) return false;
       ops.push(r.value);
     }
     return opSetKey(ops) === target;
@@ -248,16 +248,22 @@ class RankCancelled extends Error {}
 function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: number, s: string) => void): Result<RankResult> {
   const src = input.meta.source;
   const warnings: string[] = [];
-  if (input.n === 0) return fail('no reflections to analyse: nothing can be concluded about the space group', { file: src });
+  // rows the reader refused explain a short table; name them so the user knows where to look
+  const m = input.meta;
+  const refused = m.rejectedCount > 0
+    ? ` (${m.rejectedCount} of the ${m.rowsInFile} rows in the file were rejected: ${Object.entries(m.rejectedByReason).map(([r, c]) => `${c} ${r}`).join(', ')})`
+    : '';
+  if (input.n === 0) return fail(`no reflections to analyse${refused}: nothing can be concluded about the space group`, { file: src });
   if (input.n < MIN_REFLECTIONS)
     return fail(
-      `only ${input.n} reflections: too few to test reflection conditions or intensity statistics (at least ${MIN_REFLECTIONS} needed)`,
+      `only ${input.n} reflection${input.n === 1 ? '' : 's'}${refused}: too few to test reflection conditions or intensity statistics (at least ${MIN_REFLECTIONS} needed)`,
       { file: src },
+      'Use the full data set (merged or unmerged) from the integration.',
     );
   let allZero = true;
   for (let j = 0; j < input.n; j++) if (input.i[j] !== 0) { allZero = false; break; }
   if (allZero)
-    return fail('every intensity is zero: neither absences nor the Laue class can be judged from these data', { file: src });
+    return fail('every intensity is zero: neither absences nor the Laue class can be judged from these data', { file: src }, 'Check that the measured intensity column was exported (placeholder or calculated columns hold zeros).');
 
   const cellParams = options.cell ?? input.meta.cell;
   if (!cellParams)
