@@ -78,6 +78,19 @@ describe('conventions guide content', () => {
     expect(empty).toContain('hypothesis');
   });
 
+  it('lists the lattices the loaded cell allows, with the near-orthorhombic case shown with its deviation', () => {
+    const sections = buildGuideSections({ table });
+    const lattice = sections.find((s) => s.id === 'lattice')!;
+    const tbl = lattice.blocks.find((b) => b.kind === 'table');
+    if (!tbl || tbl.kind !== 'table') throw new Error('no table');
+    const oP = tbl.rows.find((r) => r[0] === 'oP')!;
+    expect(oP[1]).toBe('0.32 deg'); // beta - 90 of the cell
+    expect(tbl.rows[tbl.rows.length - 1][0]).toBe('aP');
+    const strict = buildGuideSections({ table, profile: { ...profile, tolerances: { ...profile.tolerances, latticeDeg: 0.1 } } });
+    const t2 = strict.find((s) => s.id === 'lattice')!.blocks.find((b) => b.kind === 'table');
+    expect(t2 && t2.kind === 'table' && t2.rows.map((r) => r[0])).toEqual(['mP', 'aP']);
+  });
+
   it('writes index sums as International Tables does', () => {
     expect(formatIndexSum([1, 1, 0])).toBe('h+k');
     expect(formatIndexSum([0, 0, 1])).toBe('l');
@@ -122,7 +135,7 @@ describe('conventions guide panel (DOM)', () => {
     const host = new FakeNode('div');
     const seen: (string | null)[] = [];
     const panel = buildGuidePanel(host as unknown as HTMLElement, { table }, { onAxisHighlight: (a) => seen.push(a) });
-    expect(host.find((n) => n.tagName === 'section').length).toBe(6);
+    expect(host.find((n) => n.tagName === 'section').length).toBe(7);
     const axis = host.find((n) => n.attrs.get('data-axis') === 'c*')[0];
     axis.fire('mouseenter');
     axis.fire('mouseleave');
@@ -131,7 +144,7 @@ describe('conventions guide panel (DOM)', () => {
     const evil = { ...table, meta: { ...table.meta, cell: table.meta.cell } };
     panel.update({ table: evil, candidate: { hm: '<img src=x onerror=alert(1)>', rules: [] } });
     expect(host.textContent).toContain('<img src=x onerror=alert(1)>');
-    expect(host.find((n) => n.tagName === 'section').length).toBe(6);
+    expect(host.find((n) => n.tagName === 'section').length).toBe(7);
     panel.dispose();
     expect(host.children.length).toBe(0);
   });

@@ -1,5 +1,5 @@
 import type { CellParams, ReflectionTable } from '../../core';
-import { makeCell } from '../../lattice';
+import { findBravaisCandidates, formatChangeOfBasis, makeCell } from '../../lattice';
 import { DEFAULT_PROFILE, describeProfile, isObserved, type LabProfile } from '../../profile';
 import { parseLayerPlane, type LayerPlane } from '../../../shaders-free-render';
 import { inZone, layerForRule, ruleForbids, type Rule } from '../rules';
@@ -22,7 +22,7 @@ export type GuideBlock =
   | { readonly kind: 'table'; readonly head: readonly string[]; readonly rows: readonly (readonly string[])[] };
 
 export interface GuideSection {
-  readonly id: 'axes' | 'zones' | 'conditions' | 'settings' | 'house-rules' | 'caution';
+  readonly id: 'axes' | 'lattice' | 'zones' | 'conditions' | 'settings' | 'house-rules' | 'caution';
   readonly title: string;
   readonly blocks: readonly GuideBlock[];
 }
@@ -147,6 +147,35 @@ function axesSection(cell: CellParams | undefined, table: ReflectionTable | unde
   return { id: 'axes', title: 'h, k, l and the reciprocal axes', blocks };
 }
 
+function latticeSection(cell: CellParams | undefined, profile: LabProfile): GuideSection {
+  const title = 'Lattices the cell allows';
+  const blocks: GuideBlock[] = [
+    p('Indexing gives some cell of the lattice, often a reduced or primitive one. The lattice can have more symmetry than that cell shows: a twofold axis needs a lattice row perpendicular to a lattice plane. The deviation below is the largest angle by which a needed row misses the normal of its plane (the method of Le Page, 1982); small deviations mean the metric allows the symmetry, and the intensities decide whether the crystal has it.'),
+  ];
+  if (!cell) {
+    blocks.push(p('Load a data set with a cell to see the Bravais lattices it allows.'));
+    return { id: 'lattice', title, blocks };
+  }
+  const r = findBravaisCandidates(cell, {
+    toleranceDeg: profile.tolerances.latticeDeg,
+    monoclinicRule: profile.monoclinicSetting,
+    relativeEpsilon: profile.tolerances.niggliRelativeEpsilon,
+  });
+  if (!r.ok) {
+    blocks.push(p(`The cell cannot be analysed: ${r.error.message}.`));
+    return { id: 'lattice', title, blocks };
+  }
+  const cellText = (c: CellParams) => `${f(c.a, 3)} ${f(c.b, 3)} ${f(c.c, 3)}  ${f(c.alpha, 2)} ${f(c.beta, 2)} ${f(c.gamma, 2)}`;
+  blocks.push(p(`Within ${profile.tolerances.latticeDeg} degrees (the profile's tolerance), highest symmetry first; cells carry the measured metric:`));
+  blocks.push({
+    kind: 'table',
+    head: ['lattice', 'deviation', 'conventional cell (A, deg)', 'change of basis'],
+    rows: r.value.candidates.map((c) => [c.bravais + (c.centring !== c.bravais[1] ? ` (${c.centring} cell)` : ''), `${f(c.deviationDeg, 2)} deg`, cellText(c.cell), formatChangeOfBasis(c.transform)]),
+  });
+  blocks.push(p('To work in one of these cells, reindex the data with its change of basis: lacuna reindex FILE --transform (change of basis) --out NEW.cif.'));
+  return { id: 'lattice', title, blocks };
+}
+
 function zonesSection(table: ReflectionTable | undefined, plane: LayerPlane | undefined, profile: LabProfile): GuideSection {
   const blocks: GuideBlock[] = [
     p('A layer is a flat slice of the reciprocal lattice in which one index combination is fixed: hk0 holds every reflection with l = 0 (it contains ', ax('a*'), ' and ', ax('b*'), '), hk1 the next slice up along ', ax('c*'), ', h0l every reflection with k = 0.'),
@@ -269,6 +298,7 @@ export function buildGuideSections(state: GuideState = {}): GuideSection[] {
   const plane = resolveLayer(state.layer);
   return [
     axesSection(cell, state.table),
+    latticeSection(cell, profile),
     zonesSection(state.table, plane, profile),
     conditionsSection(state.candidate, state.table, plane, profile),
     settingsSection(state.candidate, state.settings),
