@@ -111,6 +111,9 @@ export function splatPoints(frame: DepthFrame, cloud: PointCloud, viewProj: Arra
   const m8 = viewProj[8], m9 = viewProj[9], m10 = viewProj[10], m11 = viewProj[11];
   const m12 = viewProj[12], m13 = viewProj[13], m14 = viewProj[14], m15 = viewProj[15];
   const hw = W * 0.5, hh = H * 0.5;
+  // Pixel coordinates folded into the matrix: px = (P . [x y z 1]) / w, py = (Q . [x y z 1]) / w.
+  const p0 = hw * (m0 + m3), p4 = hw * (m4 + m7), p8 = hw * (m8 + m11), p12 = hw * (m12 + m15);
+  const q0 = hh * (m3 - m1), q4 = hh * (m7 - m5), q8 = hh * (m11 - m9), q12 = hh * (m15 - m13);
   const { xyz, color, radius, shape, hidden } = cloud;
   const n = cloud.n;
   // Radius after scaling, looked up rather than computed per point.
@@ -124,27 +127,30 @@ export function splatPoints(frame: DepthFrame, cloud: PointCloud, viewProj: Arra
     const w = m3 * x + m7 * y + m11 * z + m15;
     if (w <= 0) continue;
     const iw = 1 / w;
-    const nz = (m2 * x + m6 * y + m10 * z + m14) * iw;
-    if (nz < -1 || nz > 1) continue;
-    const px = ((m0 * x + m4 * y + m8 * z + m12) * iw + 1) * hw;
-    const py = (1 - (m1 * x + m5 * y + m9 * z + m13) * iw) * hh;
+    const px = (p0 * x + p4 * y + p8 * z + p12) * iw;
+    const py = (q0 * x + q4 * y + q8 * z + q12) * iw;
     const r = rmap[radius[i]];
-    if (px < -r || py < -r || px >= W + r || py >= H + r) continue;
-    const ix = px | 0, iy = py | 0;
-    const sIndex = shape[i] * (MAX_RADIUS + 1) + r;
-    const off = offs[sIndex];
-    const c = color[i];
-    drawn++;
     if (r === 0) {
-      if (ix >= 0 && iy >= 0 && ix < W && iy < H) {
-        const p = iy * W + ix;
-        if (nz < depth[p]) { depth[p] = nz; pixels[p] = c; }
-      }
+      // One pixel: the common case for large data sets, kept short.
+      if (px < 0 || py < 0 || px >= W || py >= H) continue;
+      const nz = (m2 * x + m6 * y + m10 * z + m14) * iw;
+      if (nz < -1 || nz > 1) continue;
+      const p = (py | 0) * W + (px | 0);
+      if (nz < depth[p]) { depth[p] = nz; pixels[p] = color[i]; }
+      drawn++;
       continue;
     }
+    if (px < -r || py < -r || px >= W + r || py >= H + r) continue;
+    const nz = (m2 * x + m6 * y + m10 * z + m14) * iw;
+    if (nz < -1 || nz > 1) continue;
+    const ix = Math.floor(px), iy = Math.floor(py);
+    const sIndex = shape[i] * (MAX_RADIUS + 1) + r;
+    const off = offs[sIndex];
     const rim = STAMPS[sIndex].rim;
+    const c = color[i];
     // Darker rim colour: halve each channel, keep alpha.
     const cr = ((c >>> 1) & 0x007f7f7f) | (c & 0xff000000);
+    drawn++;
     const base = iy * W + ix;
     if (ix >= r && iy >= r && ix < W - r && iy < H - r) {
       for (let s = 0; s < off.length; s++) {

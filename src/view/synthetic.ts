@@ -14,7 +14,8 @@ export function syntheticTable(target: number, seed = 7): ReflectionTable {
   if (!uc.ok) throw uc.error;
   const V = uc.value.volume;
   // Reflections inside the sphere of radius q: (4/3) pi q^3 V.
-  const q = Math.cbrt((3 * Math.max(1, target)) / (4 * Math.PI * V));
+  // 3% larger sphere so the target count is always reached before the loop ends.
+  const q = 1.03 * Math.cbrt((3 * Math.max(1, target)) / (4 * Math.PI * V));
   const hm = Math.ceil(q * cell.a) + 1, km = Math.ceil(q * cell.b) + 1, lm = Math.ceil(q * cell.c / Math.sin((cell.beta * Math.PI) / 180)) + 1;
   let s = seed >>> 0;
   const rand = () => { s = (s + 0x6d2b79f5) >>> 0; let t = s; t = Math.imul(t ^ (t >>> 15), t | 1); t ^= t + Math.imul(t ^ (t >>> 7), t | 61); return ((t ^ (t >>> 14)) >>> 0) / 4294967296; };

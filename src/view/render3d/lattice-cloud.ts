@@ -47,8 +47,10 @@ function radiusRange(n: number): [number, number] {
 export function buildCloud(ds: Dataset, style: CloudStyle, reuse?: PointCloud): { cloud: PointCloud; stats: CloudStats } {
   const n = ds.table.n;
   const cloud: PointCloud = reuse && reuse.n === n && reuse.xyz === ds.xyz ? reuse : {
-    n, xyz: ds.xyz, color: new Uint32Array(n), radius: new Uint8Array(n), shape: new Uint8Array(n), hidden: new Uint8Array(n),
+    n, xyz: ds.xyz, color: new Uint32Array(n), radius: new Uint8Array(n), shape: new Uint8Array(n),
   };
+  // The mask is kept only while something is hidden: the splat loop then skips one test per point.
+  const mask = cloud.hidden ?? new Uint8Array(n);
   const { h, k, l, i } = ds.table;
   const ios = ds.iOverSigma;
   const toT = style.colour === 'intensity'
@@ -87,8 +89,9 @@ export function buildCloud(ds: Dataset, style: CloudStyle, reuse?: PointCloud): 
     cloud.radius[r] = rad;
     cloud.shape[r] = shape;
     const hide = ds.dstar[r] > qLimit ? 1 : 0;
-    cloud.hidden![r] = hide;
+    mask[r] = hide;
     hidden += hide;
   }
+  cloud.hidden = hidden > 0 ? mask : undefined;
   return { cloud, stats: { forbidden, violations, hidden } };
 }
