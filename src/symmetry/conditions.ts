@@ -255,8 +255,8 @@ export function conditionZoneDim(c: Condition): number {
 
 /**
  * Every distinct condition the operations impose, integral first, then zonal, then serial
- * (the order of International Tables Vol. A); zones in order of first appearance, conditions
- * of one zone by coefficients (h first). A condition implied by the others of the same zone
+ * (the order of International Tables Vol. A); zones in ITA's order (0kl, h0l, hk0, hhl, ...),
+ * conditions of one zone by coefficients (h first). A condition implied by the others of the same zone
  * (00l: l = 2n beside 00l: l = 4n) is left out, as in International Tables; the absent set
  * is unchanged by that.
  */
@@ -270,18 +270,26 @@ export function deriveConditions(ops: readonly SymOp[]): Condition[] {
     if (!byKey.has(k)) byKey.set(k, c);
   }
   const list = [...byKey.values()];
-  const zoneOrder = new Map<string, number>();
-  for (const c of list) {
-    const z = zoneKey(c);
-    if (!zoneOrder.has(z)) zoneOrder.set(z, zoneOrder.size);
-  }
   const kept = dropRedundant(list);
   return kept.sort(
     (a, b) =>
       a.zone.length - b.zone.length ||
-      zoneOrder.get(zoneKey(a))! - zoneOrder.get(zoneKey(b))! ||
+      zoneRank(a) - zoneRank(b) ||
+      zoneLabel(a).localeCompare(zoneLabel(b)) ||
       b.coeffs[0] - a.coeffs[0] || b.coeffs[1] - a.coeffs[1] || b.coeffs[2] - a.coeffs[2],
   );
+}
+
+/** Zones in the order International Tables list them; others after, by label. */
+const ZONE_ORDER = ['hkl', '0kl', 'h0l', 'hk0', 'hhl', 'h-hl', 'hkk', 'hk-k', 'hkh', 'hk-h', 'h00', '0k0', '00l', 'hh0', 'h-h0', 'hhh'];
+
+function zoneLabel(c: Condition): string {
+  return c.text.slice(0, c.text.indexOf(':'));
+}
+
+function zoneRank(c: Condition): number {
+  const r = ZONE_ORDER.indexOf(zoneLabel(c));
+  return r < 0 ? ZONE_ORDER.length : r;
 }
 
 function zoneKey(c: Condition): string {

@@ -201,7 +201,12 @@ function enantiomorphOf(s: SpaceGroupSetting): string | undefined {
 // ---------------------------------------------------------------------------------------------
 // Name lookup
 
-let NAMES: { exact: Map<string, Setting>; folded: Map<string, Setting | null> } | undefined;
+let NAMES: { exact: Map<string, Setting>; folded: Map<string, Setting | null>; hallSqueezed: Map<string, Setting | null> } | undefined;
+
+/** Hall symbols keep their spaces (`P 3 2` and `P 32` are different groups); only runs collapse. */
+function hallKey(s: string): string {
+  return 'hall:' + s.trim().replace(/\s+/g, ' ');
+}
 
 function squeeze(s: string): string {
   return s.replace(/[\s_]+/g, '');
@@ -245,7 +250,14 @@ function nameIndex() {
     add(squeeze(s.hm), s);
     add(squeeze(shortSymbol(s.hm)), s);
   }
-  for (const s of settings) add('hall:' + squeeze(s.hall), s);
+  const hallSqueezed = new Map<string, Setting | null>();
+  for (const s of settings) {
+    add(hallKey(s.hall), s);
+    // without spaces only where that stays unambiguous
+    const k = squeeze(s.hall).toLowerCase();
+    const prev = hallSqueezed.get(k);
+    hallSqueezed.set(k, prev === undefined || opSetKey(prev?.ops ?? []) === opSetKey(s.ops) ? (prev ?? s) : null);
+  }
   for (const s of settings) {
     const base = s.hm.split(':')[0];
     add(squeeze(base), s);
@@ -260,7 +272,7 @@ function nameIndex() {
       add(squeeze(shortSymbol(base).replace(/^R/, 'H')), s);
     }
   }
-  NAMES = { exact, folded };
+  NAMES = { exact, folded, hallSqueezed };
   return NAMES;
 }
 
@@ -279,18 +291,19 @@ export function findSetting(nameOrNumber: string | number): SpaceGroupSetting | 
   }
   const text = nameOrNumber.trim();
   if (!text) return undefined;
-  const { exact, folded } = nameIndex();
+  const { exact, folded, hallSqueezed } = nameIndex();
   const tryKey = (key: string): Setting | undefined => exact.get(key) ?? folded.get(key.toLowerCase()) ?? undefined;
   const sq = squeeze(text);
   // Hall symbols: an explicit "Hall:" prefix, or a leading '-', or a plain match
   const hallText = text.replace(/^hall\s*:\s*/i, '');
+  const hallMatch = () => tryKey(hallKey(hallText)) ?? hallSqueezed.get(squeeze(hallText).toLowerCase()) ?? undefined;
   if (hallText !== text || text.startsWith('-')) {
-    const h = tryKey('hall:' + squeeze(hallText));
+    const h = hallMatch();
     if (h) return h;
   }
   const direct = tryKey(sq);
   if (direct) return direct;
-  const hall = tryKey('hall:' + sq);
+  const hall = hallMatch();
   if (hall) return hall;
   // full symbols: drop rotation parts written before a slash (21/b -> b) in the axis positions
   const [base, ext] = text.split(':');
