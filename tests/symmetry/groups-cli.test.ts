@@ -1,16 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../src/cli';
+import { captureCli as capture } from '../helpers/capture-cli';
 import { decodeBits, gemmiFixture, indexGrid } from './reference-fixture';
-
-function capture() {
-  let out = '';
-  let err = '';
-  return {
-    ctx: { out: (t: string) => { out += t; }, err: (t: string) => { err += t; }, interactive: false, cwd: process.cwd() },
-    get out() { return out; },
-    get err() { return err; },
-  };
-}
 
 interface JsonCondition { text: string; zone: number[][]; coeffs: number[]; modulus: number }
 interface JsonSetting {
