@@ -135,7 +135,8 @@ describe('conventions guide panel (DOM)', () => {
     const host = new FakeNode('div');
     const seen: (string | null)[] = [];
     const panel = buildGuidePanel(host as unknown as HTMLElement, { table }, { onAxisHighlight: (a) => seen.push(a) });
-    expect(host.find((n) => n.tagName === 'section').length).toBe(7);
+    expect(host.find((n) => n.tagName === 'details').length).toBe(7);
+    expect(host.find((n) => n.tagName === 'details' && n.attrs.has('open')).map((n) => n.attrs.get('data-section'))).toEqual(['axes', 'lattice']);
     const axis = host.find((n) => n.attrs.get('data-axis') === 'c*')[0];
     axis.fire('mouseenter');
     axis.fire('mouseleave');
@@ -144,7 +145,7 @@ describe('conventions guide panel (DOM)', () => {
     const evil = { ...table, meta: { ...table.meta, cell: table.meta.cell } };
     panel.update({ table: evil, candidate: { hm: '<img src=x onerror=alert(1)>', rules: [] } });
     expect(host.textContent).toContain('<img src=x onerror=alert(1)>');
-    expect(host.find((n) => n.tagName === 'section').length).toBe(7);
+    expect(host.find((n) => n.tagName === 'details').length).toBe(7);
     panel.dispose();
     expect(host.children.length).toBe(0);
   });

@@ -14,6 +14,8 @@ import { buildGuideSections, type AxisName, type GuidePart, type GuideState } fr
  */
 export interface GuidePanelOptions {
   readonly onAxisHighlight?: (axis: AxisName | null) => void;
+  /** Sections shown unfolded (default: 'axes' and 'lattice'); the others are one click away. */
+  readonly openSections?: readonly string[];
 }
 
 export interface GuidePanel {
@@ -38,11 +40,14 @@ function renderParts(parts: readonly GuidePart[], onAxis?: (axis: AxisName | nul
 }
 
 export function buildGuidePanel(container: HTMLElement, state: GuideState = {}, options: GuidePanelOptions = {}): GuidePanel {
+  const openIds = options.openSections ?? ['axes', 'lattice'];
   const render = (s: GuideState) => {
     clear(container);
     const root = el('div', { class: 'guide' }, [el('h2', { text: 'Conventions guide' })]);
     for (const section of buildGuideSections(s)) {
-      const box = el('section', { class: 'guide-section', attrs: { 'data-section': section.id } }, [el('h3', { text: section.title })]);
+      // collapsible, the first two open: the panel is long for a side column
+      const box = el('details', { class: 'guide-section', attrs: { 'data-section': section.id } }, [el('summary', { text: section.title })]);
+      if (openIds.includes(section.id)) box.setAttribute('open', '');
       for (const b of section.blocks) {
         if (b.kind === 'p') box.append(el('p', {}, renderParts(b.parts, options.onAxisHighlight)));
         else if (b.kind === 'list') box.append(el('ul', {}, b.items.map((it) => el('li', {}, renderParts(it, options.onAxisHighlight)))));
