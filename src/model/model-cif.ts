@@ -4,7 +4,7 @@ import { makeCell } from '../lattice';
 import { closeGroup, findSetting, parseTriplet, type SymOp } from '../symmetry';
 import { atomSitesFromList, type AtomInput, type CrystalModel } from './crystal-model';
 import { findFormFactor, parseTypeSymbol } from './form-factors';
-import { closestDistinctImage } from './site-symmetry';
+import { closestDistinctImage, siteSymmetryOrder } from './site-symmetry';
 
 /**
  * Reader for trial structures in CIF 1.1 (IUCr core dictionary):
@@ -152,7 +152,22 @@ function readBlock(block: CifBlock, source: string): CrystalModel {
   if (atoms.length === 0) throw new InputError('the model has no atoms', { file: source, line: block.line });
   const model = { source, cell: cellResult.value, ops, spaceGroupName: name, atoms: atomSitesFromList(atoms), warnings };
   warnNearSpecialPositions(model);
+  checkMultiplicities(model, block.findColumn('_atom_site_symmetry_multiplicity'), labels, warnings);
   return model;
+}
+
+/** The file's _atom_site_symmetry_multiplicity against the one the operations give (order of the group / site-symmetry order). */
+function checkMultiplicities(model: CrystalModel, given: CifValue[] | undefined, labels: CifValue[] | undefined, warnings: string[]): void {
+  if (!given || !labels) return;
+  const row = new Map(labels.map((v, j) => [v.text, j]));
+  for (let j = 0; j < model.atoms.n; j++) {
+    const r = row.get(model.atoms.label[j]);
+    const v = r === undefined ? undefined : cifValueNumber(given[r]);
+    if (!v) continue;
+    const ours = model.ops.length / siteSymmetryOrder(model, model.atoms.x[j], model.atoms.y[j], model.atoms.z[j]);
+    if (v.value !== ours)
+      warnings.push(`${model.atoms.label[j]}: the file gives site multiplicity ${v.value}, the operations give ${ours}; ${ours} is used`);
+  }
 }
 
 /** Closer than this (angstrom) to its own symmetry image, an atom off a special position is almost surely a mistake. */

@@ -167,3 +167,69 @@ Fe2 Fe 0.5 0.5 0.5
     expect(w).not.toMatch(/Fe2 lies/); // exactly on the inversion centre
   });
 });
+
+describe('model CIF reader: a file in the style refinement programs write', () => {
+  it('reads symop ids, s.u., Uani/Uiso flags, riding hydrogens, multiplicities and dummy sites', () => {
+    const text = `#\\#CIF_1.1
+data_invented_example
+_cell_length_a                    7.2104(3)
+_cell_length_b                    9.8311(4)
+_cell_length_c                    11.3702(5)
+_cell_angle_alpha                 90
+_cell_angle_beta                  104.613(2)
+_cell_angle_gamma                 90
+_space_group_crystal_system       monoclinic
+_space_group_name_H-M_alt         'P 21/c'
+loop_
+ _space_group_symop_id
+ _space_group_symop_operation_xyz
+ 1 'x, y, z'
+ 2 '-x, y+1/2, -z+1/2'
+ 3 '-x, -y, -z'
+ 4 'x, -y-1/2, z-1/2'
+loop_
+ _atom_site_label
+ _atom_site_type_symbol
+ _atom_site_fract_x
+ _atom_site_fract_y
+ _atom_site_fract_z
+ _atom_site_U_iso_or_equiv
+ _atom_site_adp_type
+ _atom_site_occupancy
+ _atom_site_symmetry_multiplicity
+ _atom_site_calc_flag
+ _atom_site_refinement_flags
+Fe1 Fe 0.5000 0.0000 0.5000 0.01234(8) Uani 1 2 d S
+N1 N 0.3195(2) 0.1622(2) 0.4718(2) 0.0210(4) Uani 1 1 d .
+C1 C 0.1391(3) 0.2870(2) 0.2255(2) 0.0270(5) Uani 1 2 d .
+H1 H 0.0812 0.3301 0.2811 0.032 Uiso 1 1 calc R
+Q1 ? 0.2 0.2 0.2 0.05 Uiso 1 1 dum .
+loop_
+ _atom_site_aniso_label
+ _atom_site_aniso_U_11
+ _atom_site_aniso_U_22
+ _atom_site_aniso_U_33
+ _atom_site_aniso_U_23
+ _atom_site_aniso_U_13
+ _atom_site_aniso_U_12
+ _atom_site_aniso_type_symbol
+Fe1 0.0110(1) 0.0130(1) 0.0125(1) 0.0003(1) 0.0021(1) -0.0004(1) Fe
+N1 0.019(1) 0.022(1) 0.021(1) 0.001(1) 0.004(1) 0.000(1) N
+C1 0.025(1) 0.028(1) 0.027(1) -0.002(1) 0.005(1) 0.001(1) C
+`;
+    const r = parseModelCif(text, 'ex.cif');
+    if (!r.ok) throw r.error;
+    const m = r.value;
+    expect(m.cell.beta).toBe(104.613);
+    expect(m.ops.length).toBe(4);
+    expect(m.atoms.label).toEqual(['Fe1', 'N1', 'C1', 'H1']);
+    expect(m.warnings.join()).toMatch(/Q1: dummy site/);
+    expect(m.warnings.join('\n')).toMatch(/C1: the file gives site multiplicity 2, the operations give 4/);
+    expect(m.warnings.join('\n')).not.toMatch(/Fe1: the file gives/);
+    // aniso columns in a different order than 11 22 33 12 13 23: stored as U11 U22 U33 U12 U13 U23
+    expect(Array.from(m.atoms.aniso.subarray(0, 6))).toEqual([0.011, 0.013, 0.0125, -0.0004, 0.0021, 0.0003]);
+    expect(m.atoms.hasAniso[3]).toBe(0);
+    expect(m.atoms.uiso[3]).toBe(0.032);
+    expect(prepareModel(m).siteOrder[0]).toBe(2); // on the inversion centre, as _atom_site_symmetry_multiplicity 2 says
+  });
+});
