@@ -1,5 +1,6 @@
 /// <reference lib="webworker" />
 import { isGzip, readReflections } from '../io';
+import { calculatedIntensitiesOf, parseModelCif, prepareModel } from '../model';
 import { runAnalysis } from './analysis-bridge';
 import type { FromWorker, ToWorker } from './worker-protocol';
 
@@ -41,8 +42,35 @@ async function fetchBytes(id: number, url: string): Promise<Uint8Array> {
   return out;
 }
 
+async function bytesOf(id: number, msg: { url?: string; bytes?: ArrayBuffer }): Promise<Uint8Array> {
+  let bytes = msg.url !== undefined ? await fetchBytes(id, msg.url) : new Uint8Array(msg.bytes!);
+  if (isGzip(bytes)) bytes = await gunzip(bytes);
+  return bytes;
+}
+
+async function computeModel(msg: Extract<ToWorker, { type: 'model' }>): Promise<void> {
+  const { id, name } = msg;
+  try {
+    const bytes = await bytesOf(id, msg);
+    let text: string;
+    try {
+      text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+    } catch {
+      post({ type: 'error', id, message: `${name}: the model file is not UTF-8 text`, model: true });
+      return;
+    }
+    const r = parseModelCif(text, name);
+    if (!r.ok) { post({ type: 'error', id, message: r.error.describe(), model: true }); return; }
+    const calc = Float32Array.from(calculatedIntensitiesOf(prepareModel(r.value), msg.h, msg.k, msg.l));
+    post({ type: 'model', id, name, calc, warnings: r.value.warnings }, [calc.buffer]);
+  } catch (err) {
+    post({ type: 'error', id, message: `${name}: ${err instanceof Error ? err.message : String(err)}`, internal: true, model: true });
+  }
+}
+
 scope.onmessage = async (e: MessageEvent<ToWorker>) => {
   const msg = e.data;
+  if (msg.type === 'model') { await computeModel(msg); return; }
   if (msg.type !== 'load') return;
   const { id, name } = msg;
   try {

@@ -7,6 +7,8 @@ export interface LoaderEvents {
   table(table: ReflectionTable, name: string): void;
   analysis(analysis: AnalysisView, name: string): void;
   error(message: string, name: string): void;
+  model(calc: Float32Array, name: string, warnings: string[]): void;
+  modelError(message: string): void;
 }
 
 /**
@@ -16,6 +18,8 @@ export interface LoaderEvents {
 export class DataLoader {
   private worker: Worker | undefined;
   private seq = 0;
+  /** Model jobs use negative ids, so they never collide with data loads. */
+  private modelSeq = 0;
   private busy = false;
   private name = '';
 
@@ -29,20 +33,39 @@ export class DataLoader {
     this.start({ type: 'load', id: 0, name, url });
   }
 
+  /** Calculated intensities of a trial model at the given indices (the loaded data's). */
+  loadModel(name: string, source: { bytes?: ArrayBuffer; url?: string }, h: Int16Array, k: Int16Array, l: Int16Array): void {
+    this.ensureWorker();
+    const id = ++this.modelSeq;
+    const cols = { h: h.slice(), k: k.slice(), l: l.slice() };
+    const transfer: Transferable[] = [cols.h.buffer, cols.k.buffer, cols.l.buffer];
+    if (source.bytes) transfer.push(source.bytes);
+    this.worker!.postMessage({ type: 'model', id: -id, name, ...source, ...cols }, transfer);
+  }
+
+  private ensureWorker(): void {
+    if (this.worker) return;
+    this.worker = new Worker(new URL('./data-worker.ts', import.meta.url), { type: 'module' });
+    this.worker.onmessage = (e: MessageEvent<FromWorker>) => this.receive(e.data);
+    this.worker.onerror = (e) => { this.busy = false; this.events.error(`the data worker failed: ${e.message || 'unknown error'}`, this.name); };
+  }
+
   private start(msg: ToWorker, transfer: Transferable[] = []): void {
     if (this.busy && this.worker) { this.worker.terminate(); this.worker = undefined; }
-    if (!this.worker) {
-      this.worker = new Worker(new URL('./data-worker.ts', import.meta.url), { type: 'module' });
-      this.worker.onmessage = (e: MessageEvent<FromWorker>) => this.receive(e.data);
-      this.worker.onerror = (e) => { this.busy = false; this.events.error(`the data worker failed: ${e.message || 'unknown error'}`, this.name); };
-    }
+    this.ensureWorker();
     const id = ++this.seq;
     this.busy = true;
     this.name = msg.name;
-    this.worker.postMessage({ ...msg, id }, transfer);
+    this.worker!.postMessage({ ...msg, id }, transfer);
   }
 
   private receive(m: FromWorker): void {
+    if (m.id < 0) {
+      if (-m.id !== this.modelSeq) return;
+      if (m.type === 'model') this.events.model(m.calc, m.name, m.warnings);
+      else if (m.type === 'error') this.events.modelError(m.message);
+      return;
+    }
     if (m.id !== this.seq) return;
     switch (m.type) {
       case 'progress': this.events.progress(m.stage, m.fraction, this.name); break;

@@ -52,6 +52,10 @@ class App {
   layer: LayerPanel;
   loader: DataLoader;
   cloud: PointCloud | undefined;
+  /** Calculated intensities of the loaded trial model, row for row with the data. */
+  calc: { n: number; h: Int16Array; k: Int16Array; l: Int16Array; i: Float32Array; name: string } | undefined;
+  /** A model to load once the data are in (?model=URL). */
+  pendingModelUrl: string | undefined;
   gui: GUI;
   private dMinController: ReturnType<GUI['add']> | undefined;
   private loadStarted = 0;
@@ -72,6 +76,8 @@ class App {
       table: (t, name) => this.onTable(t, name),
       analysis: (a) => this.onAnalysis(a),
       error: (msg) => this.onError(msg),
+      model: (calc, name, warnings) => this.onModel(calc, name, warnings),
+      modelError: (msg) => this.onError(msg),
     });
     this.gui = this.makeGui();
     this.wireFileInputs();
@@ -129,6 +135,14 @@ class App {
       if (f) this.openFile(f);
     });
     byId('message').querySelector('.close')!.addEventListener('click', () => { byId('message').hidden = true; });
+    const modelInput = byId<HTMLInputElement>('model-input');
+    byId('open-model').addEventListener('click', () => modelInput.click());
+    modelInput.addEventListener('change', () => {
+      const f = modelInput.files?.[0];
+      modelInput.value = '';
+      if (!f || !this.ds) return;
+      void f.arrayBuffer().then((buf) => this.loader.loadModel(f.name, { bytes: buf }, this.ds!.table.h, this.ds!.table.k, this.ds!.table.l));
+    });
   }
 
   openFile(f: File): void {
@@ -174,6 +188,9 @@ class App {
     const ds = makeDataset(t, name);
     this.ds = ds;
     this.analysis = undefined;
+    this.calc = undefined;
+    byId('open-model').textContent = 'Model\u2026';
+    delete document.body.dataset.model;
     this.candidate = -1;
     this.condition = -1;
     byId('message').hidden = true;
@@ -192,12 +209,31 @@ class App {
     this.showPick(-1);
     this.refreshEvidence();
     this.progress(`analysing ${name}`, 0.05);
+    if (this.pendingModelUrl) { const u = this.pendingModelUrl; this.pendingModelUrl = undefined; this.openModelUrl(u); }
     requestAnimationFrame(() => {
       if (!this.firstPictureDone) {
         this.firstPictureDone = true;
         document.body.dataset.firstPictureMs = String(Math.round(performance.now() - this.loadStarted));
       }
     });
+  }
+
+  /** Opens a trial model (CIF) by address; its intensities appear beside the measured ones in the layer map. */
+  openModelUrl(url: string): void {
+    const u = new URL(url, location.href);
+    if (u.origin !== location.origin) { this.onError(`?model=${url}: only models from this server can be opened by address`); return; }
+    if (!this.ds) { this.pendingModelUrl = u.href; return; }
+    this.loader.loadModel(decodeURIComponent(u.pathname.split('/').pop() || url), { url: u.href }, this.ds.table.h, this.ds.table.k, this.ds.table.l);
+  }
+
+  onModel(calc: Float32Array, name: string, warnings: string[]): void {
+    const ds = this.ds;
+    if (!ds || calc.length !== ds.table.n) return;
+    this.calc = { n: ds.table.n, h: ds.table.h, k: ds.table.k, l: ds.table.l, i: calc, name };
+    byId('open-model').textContent = `Model: ${name}`;
+    if (warnings.length) this.note(`${name}: ${warnings.join('; ')}`);
+    this.restyle();
+    document.body.dataset.model = name;
   }
 
   onAnalysis(a: AnalysisView): void {
@@ -247,7 +283,7 @@ class App {
     const { cloud } = buildCloud(ds, { colour: this.settings.colour, rules: act.rules, zone: act.zone, dMin: this.settings.dMin }, this.cloud);
     this.cloud = cloud;
     this.lattice.setCloud(cloud, this.settings.spotScale);
-    this.layer.setState({ rules: act.rules, ruleText: act.label || undefined, dMin: this.settings.dMin });
+    this.layer.setState({ rules: act.rules, ruleText: act.label || undefined, dMin: this.settings.dMin, calc: this.calc });
   }
 
   refreshEvidence(): void {
@@ -298,10 +334,10 @@ class App {
       el('span', { text: `I/\u03c3 ${fmt(ds.iOverSigma[row], 1)}` }),
     );
     const tested = (this.analysis?.conditions ?? []).filter((c) => inZone(c, h, k, l) && c.zone.length + (c.coeffs.some((x) => x !== 0) ? 1 : 0) > 0);
-    const lines = tested.filter((c) => ruleForbids(c, h, k, l)).map((c) => `forbidden by ${c.text}`);
+    const lines = tested.filter((c) => ruleForbids(c, h, k, l)).map((c) => c.text);
     const allowed = tested.filter((c) => !ruleForbids(c, h, k, l)).map((c) => c.text);
-    if (lines.length) info.append(el('span', { class: 'tests forbidden', text: lines.join('; ') }));
-    if (allowed.length) info.append(el('span', { class: 'tests', text: `in the zone of, and allowed by: ${allowed.slice(0, 6).join('; ')}${allowed.length > 6 ? ' ...' : ''}` }));
+    if (lines.length) info.append(el('span', { class: 'tests forbidden', text: `would be absent under: ${lines.join('; ')}` }));
+    if (allowed.length) info.append(el('span', { class: 'tests', text: `tests and obeys: ${allowed.slice(0, 6).join('; ')}${allowed.length > 6 ? ' ...' : ''}` }));
     if (!lines.length && !allowed.length) info.append(el('span', { class: 'tests muted', text: 'tests no condition in the table' }));
   }
 
@@ -339,6 +375,8 @@ function start(): void {
   const synthetic = params.get('synthetic');
   const data = params.get('data');
   const bench = Number(params.get('bench') ?? 0);
+  const model = params.get('model');
+  if (model) app.openModelUrl(model);
   if (synthetic) {
     const n = Math.max(1, Math.min(5_000_000, Number(synthetic) || 1000));
     app.openTable(syntheticTable(n), `synthetic-${n}`);

@@ -4,6 +4,10 @@ import type { AnalysisView } from '../analysis-view';
 export const CAUTION = 'A space group chosen from absences and statistics is a hypothesis: structure solution and refinement must confirm it.';
 
 /** Ranked candidates with probability bars; clicking one selects it (its forbidden reflections get marked). */
+/** How many candidates show before "show all". */
+export const CANDIDATES_SHOWN = 10;
+let showAll = false;
+
 export function renderCandidates(host: HTMLElement, a: AnalysisView | undefined, selected: number, onSelect: (index: number) => void): void {
   clear(host);
   if (!a) { host.append(el('p', { class: 'muted', text: 'Ranking runs after loading.' })); return; }
@@ -11,7 +15,8 @@ export function renderCandidates(host: HTMLElement, a: AnalysisView | undefined,
   if (!a.available || a.candidates.length === 0) return;
   if (a.laue) host.append(el('p', { class: 'laue', text: `Laue class from equivalent intensities: ${a.laue}` }));
   const list = el('ol', { class: 'candidates', attrs: { role: 'listbox', 'aria-label': 'space-group candidates' } });
-  a.candidates.forEach((c, j) => {
+  const limit = showAll ? a.candidates.length : Math.max(CANDIDATES_SHOWN, selected + 1);
+  a.candidates.slice(0, limit).forEach((c, j) => {
     const pct = c.probability * 100;
     const li = el('li', { class: 'candidate' + (j === selected ? ' selected' : ''), attrs: { role: 'option', 'aria-selected': String(j === selected), tabindex: '0', 'data-index': String(j) } });
     const bar = el('span', { class: 'pbar' }, [el('span', { class: 'pfill' })]);
@@ -35,4 +40,9 @@ export function renderCandidates(host: HTMLElement, a: AnalysisView | undefined,
     list.append(li);
   });
   host.append(list);
+  if (a.candidates.length > CANDIDATES_SHOWN) {
+    const more = el('button', { class: 'more', text: showAll ? 'show the first ten' : `show all ${a.candidates.length}`, attrs: { type: 'button' } });
+    more.addEventListener('click', () => { showAll = !showAll; renderCandidates(host, a, selected, onSelect); });
+    host.append(more);
+  }
 }

@@ -1,4 +1,4 @@
-import { clear, el, fmt } from '../dom';
+import { clear, el } from '../dom';
 import type { AnalysisView } from '../analysis-view';
 
 /** The condition table: each reflection condition, its evidence and the probability that it holds. */
@@ -17,7 +17,7 @@ export function renderConditions(host: HTMLElement, a: AnalysisView | undefined,
     const p = c.probabilityAbsent;
     const cell = el('td', { class: 'prob' }, [el('span', { class: 'pbar' }, [el('span', { class: 'pfill' })]), el('span', { class: 'pct', text: `${(p * 100).toFixed(0)}%` })]);
     ((cell.firstChild as HTMLElement).firstChild as HTMLElement).style.width = `${(p * 100).toFixed(1)}%`;
-    tr.append(el('td', { class: 'text', text: c.text }), el('td', { text: String(c.n) }), el('td', { text: c.n ? fmt(c.meanIOverSigma, 1) : '-' }), el('td', { class: c.nStrong > 0 ? 'strong' : '', text: String(c.nStrong) }), cell);
+    tr.append(el('td', { class: 'text', text: c.text }), el('td', { text: String(c.n) }), el('td', { text: c.n && Number.isFinite(c.meanIOverSigma) ? c.meanIOverSigma.toFixed(1) : '-' }), el('td', { class: c.nStrong > 0 ? 'strong' : '', text: String(c.nStrong) }), cell);
     tr.addEventListener('click', () => onSelect(j === selected ? -1 : j));
     tr.addEventListener('keydown', (e) => { if (e.key === 'Enter' || e.key === ' ') { e.preventDefault(); onSelect(j === selected ? -1 : j); } });
     body.append(tr);

@@ -9,13 +9,13 @@ import { anyRuleForbids, type Rule } from '../rules';
  * cumulative N(z) against the acentric and centric curves, and I/sigma
  * histograms of the reflections the selected rules forbid against the rest.
  */
-const W = 250, H = 150, M = { l: 36, r: 8, t: 18, b: 26 };
+const W = 250, H = 150, M = { l: 36, r: 8, t: 26, b: 26 };
 
 function frame(title: string, xLabel: string, yLabel: string): { root: SVGSVGElement; plot: SVGGElement } {
   const root = svg('svg', { viewBox: `0 0 ${W} ${H}`, class: 'plot', role: 'img', 'aria-label': title });
   root.append(svg('text', { x: M.l, y: 12, class: 'plot-title' }, title));
   root.append(svg('text', { x: W - M.r, y: H - 3, class: 'plot-axis-label', 'text-anchor': 'end' }, xLabel));
-  root.append(svg('text', { x: 4, y: M.t - 4, class: 'plot-axis-label' }, yLabel));
+  root.append(svg('text', { x: 4, y: M.t - 6, class: 'plot-axis-label' }, yLabel));
   const plot = svg('g');
   root.append(plot);
   return { root, plot };
@@ -110,7 +110,7 @@ export function iOverSigmaPlot(ds: Dataset | undefined, rules: readonly Rule[], 
   // The I/sigma = 3 line: forbidden reflections right of it are violations.
   const b3 = edges.indexOf(3);
   plot.append(svg('line', { x1: x(b3), y1: M.t, x2: x(b3), y2: H - M.b, class: 'threshold' }));
-  root.append(svg('text', { x: W - M.r, y: 12, class: 'plot-note', 'text-anchor': 'end' }, rules.length ? `${label}: ${nf} forbidden (teal), ${na} allowed (grey)` : 'select a candidate or rule'));
+  root.append(svg('text', { x: W - M.r, y: 22, class: 'plot-note', 'text-anchor': 'end' }, rules.length ? `${label}: ${nf} forbidden (teal), ${na} allowed (grey)` : 'select a candidate or a condition'));
   return root;
 }
 
