@@ -62,6 +62,9 @@ export {
   rotatedIndices,
   equivalentIndices,
   phaseShiftNumerator,
+  absentFlags,
+  epsilonColumn,
+  centricColumn,
 } from './reflection';
 export {
   type ConditionCatalogue,

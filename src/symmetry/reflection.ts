@@ -80,3 +80,55 @@ export function phaseShiftNumerator(t: Int32Array, h: number, k: number, l: numb
   const s = (h * t[0] + k * t[1] + l * t[2]) % DEN;
   return s < 0 ? s + DEN : s;
 }
+
+type IndexColumn = ArrayLike<number>;
+
+/**
+ * Absence flags of one setting over columns of indices (1 = systematically absent), e.g. the
+ * h, k, l columns of a ReflectionTable. Uses the setting's derived conditions; for all settings
+ * at once use classifyReflections. `out` (length >= n) is reused when given.
+ */
+export function absentFlags(setting: SpaceGroupSetting, h: IndexColumn, k: IndexColumn, l: IndexColumn, n: number, out?: Uint8Array): Uint8Array {
+  const res = out && out.length >= n ? out : new Uint8Array(n);
+  const conds = setting.conditions;
+  const nc = conds.length;
+  // flatten once: up to two zone rows, coefficients and modulus per condition
+  const rows = new Int32Array(nc * 6);
+  const nRows = new Int32Array(nc);
+  const co = new Int32Array(nc * 3);
+  const mo = new Int32Array(nc);
+  conds.forEach((c, j) => {
+    nRows[j] = c.zone.length;
+    c.zone.forEach((e, r) => rows.set(e, 6 * j + 3 * r));
+    co.set(c.coeffs, 3 * j);
+    mo[j] = c.modulus;
+  });
+  for (let i = 0; i < n; i++) {
+    const hi = h[i], ki = k[i], li = l[i];
+    let absent = 0;
+    for (let j = 0; j < nc && !absent; j++) {
+      let inZone = true;
+      for (let r = 0; r < nRows[j]; r++) {
+        const o = 6 * j + 3 * r;
+        if (Math.imul(rows[o], hi) + Math.imul(rows[o + 1], ki) + Math.imul(rows[o + 2], li) !== 0) { inZone = false; break; }
+      }
+      if (inZone && (Math.imul(co[3 * j], hi) + Math.imul(co[3 * j + 1], ki) + Math.imul(co[3 * j + 2], li)) % mo[j] !== 0) absent = 1;
+    }
+    res[i] = absent;
+  }
+  return res;
+}
+
+/** Epsilon factor of every reflection (see epsilonFactor). `out` (length >= n) is reused when given. */
+export function epsilonColumn(setting: SpaceGroupSetting, h: IndexColumn, k: IndexColumn, l: IndexColumn, n: number, out?: Uint8Array): Uint8Array {
+  const res = out && out.length >= n ? out : new Uint8Array(n);
+  for (let i = 0; i < n; i++) res[i] = epsilonFactor(setting, h[i], k[i], l[i]);
+  return res;
+}
+
+/** Centric flag of every reflection (1 = centric, see isCentric). `out` (length >= n) is reused when given. */
+export function centricColumn(setting: SpaceGroupSetting, h: IndexColumn, k: IndexColumn, l: IndexColumn, n: number, out?: Uint8Array): Uint8Array {
+  const res = out && out.length >= n ? out : new Uint8Array(n);
+  for (let i = 0; i < n; i++) res[i] = isCentric(setting, h[i], k[i], l[i]) ? 1 : 0;
+  return res;
+}

@@ -9,9 +9,10 @@ as tabulated by the gemmi library (Debian python3-gemmi), gemmi.spacegroup_table
 Only the symbol strings are written; src/symmetry builds every group from its Hall
 symbol with its own interpreter.
 
-Run: /usr/bin/python3 tests/reference/settings-table.py
+Run: /usr/bin/python3 tests/reference/settings-table.py [--check]
+(--check: write nothing, exit 1 if the committed file differs from what gemmi gives now)
 """
-import json, os
+import json, os, sys
 import gemmi
 
 HERE = os.path.dirname(os.path.abspath(__file__))
@@ -38,8 +39,14 @@ def main():
     for r in rows:
         lines.append('  ' + json.dumps(r) + ',')
     lines.append('];')
+    text = '\n'.join(lines) + '\n'
+    if '--check' in sys.argv:
+        with open(OUT) as f:
+            same = f.read() == text
+        print('%s: %s' % (os.path.relpath(OUT), 'up to date' if same else 'DIFFERS from gemmi %s output' % gemmi.__version__))
+        sys.exit(0 if same else 1)
     with open(OUT, 'w') as f:
-        f.write('\n'.join(lines) + '\n')
+        f.write(text)
     print('wrote %s (%d settings)' % (os.path.relpath(OUT), len(rows)))
 
 

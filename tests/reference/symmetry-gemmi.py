@@ -17,9 +17,10 @@ Writes tests/reference/symmetry-gemmi.json:
   centric_patterns one '0'/'1' per reflection of that grid
 Identical patterns are stored once to keep the fixture small.
 
-Run: /usr/bin/python3 tests/reference/symmetry-gemmi.py
+Run: /usr/bin/python3 tests/reference/symmetry-gemmi.py [--check]
+(--check: write nothing, exit 1 if the committed fixture differs from what gemmi gives now)
 """
-import json, os
+import json, os, sys
 import numpy as np
 import gemmi
 
@@ -89,9 +90,14 @@ def main():
         'eps_patterns': eps_patterns,
         'centric_patterns': centric_patterns,
     }
+    text = json.dumps(doc, separators=(',', ':')) + '\n'
+    if '--check' in sys.argv:
+        with open(OUT) as f:
+            same = f.read() == text
+        print('%s: %s' % (os.path.relpath(OUT), 'up to date' if same else 'DIFFERS from gemmi %s output' % gemmi.__version__))
+        sys.exit(0 if same else 1)
     with open(OUT, 'w') as f:
-        json.dump(doc, f, separators=(',', ':'))
-        f.write('\n')
+        f.write(text)
     print('wrote %s: %d settings, %d absence patterns, %d epsilon patterns, %d centric patterns, %d bytes' % (
         os.path.relpath(OUT), len(settings), len(absent_patterns), len(eps_patterns), len(centric_patterns),
         os.path.getsize(OUT)))

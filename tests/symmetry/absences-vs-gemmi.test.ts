@@ -1,7 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import {
   absenceBits,
+  absentFlags,
   allSettings,
+  centricColumn,
+  epsilonColumn,
   breaksCondition,
   buildConditionCatalogue,
   classifyReflections,
@@ -45,6 +48,18 @@ describe('systematic absences of every setting against gemmi (|h|,|k|,|l| <= 8)'
         }
       }
       if (wrong) bad.push(`${s.hm}: ${wrong} differ, e.g. ${first}`);
+    });
+    expect(bad).toEqual([]);
+  });
+
+  it('column version absentFlags over a whole grid', () => {
+    const bad: string[] = [];
+    const out = new Uint8Array(grid.n);
+    settings.forEach((s, si) => {
+      absentFlags(s, grid.h, grid.k, grid.l, grid.n, out);
+      let wrong = 0;
+      for (let i = 0; i < grid.n; i++) if ((out[i] === 1) !== expected[si][i]) wrong++;
+      if (wrong) bad.push(`${s.hm}: ${wrong} differ`);
     });
     expect(bad).toEqual([]);
   });
@@ -106,6 +121,19 @@ describe('epsilon factors and centric flags of every setting against gemmi (|h|,
           break;
         }
       }
+    });
+    expect(bad).toEqual([]);
+  });
+
+  it('column versions equal the per-reflection ones', () => {
+    const bad: string[] = [];
+    settings.forEach((s, si) => {
+      const eps = epsilonColumn(s, grid.h, grid.k, grid.l, grid.n);
+      const cen = centricColumn(s, grid.h, grid.k, grid.l, grid.n);
+      const wantE = fx.eps_patterns[fx.settings[si].eps];
+      const wantC = fx.centric_patterns[fx.settings[si].centric];
+      for (let i = 0; i < grid.n; i++)
+        if (eps[i] !== parseInt(wantE[i], 36) || cen[i] !== Number(wantC[i])) { bad.push(s.hm); break; }
     });
     expect(bad).toEqual([]);
   });
