@@ -144,6 +144,9 @@ function readLoopRows(sc: ByteCifScanner, w: number, roles: Int8Array, sink: Row
   const b = sc.b, n = b.length;
   let pos = sc.pos, line = sc.line, lineStart = sc.lineStart;
   let col = 0, rowLine = 0, lastLine = line, lastCol = 1;
+  // rows normally sit one per line; the first row that does not (after rows that did)
+  // is where a value went missing or an extra one crept in
+  let prevEnd = -1, rowsDone = 0, badLine = 0;
   for (;;) {
     let c = 0;
     while (pos < n) {
@@ -155,6 +158,11 @@ function readLoopRows(sc: ByteCifScanner, w: number, roles: Int8Array, sink: Row
       else break;
     }
     if (pos >= n || c === 95 /* _ tag */) break;
+    if (c < 32) {
+      // control bytes end no token: without this check they would stall the scan
+      sc.pos = pos; sc.line = line; sc.lineStart = lineStart; sc.tline = line; sc.tcol = pos - lineStart + 1;
+      return `the reflection loop holds the control byte 0x${c.toString(16).padStart(2, '0')}, which no text file has: the file may be damaged (a zero-filled or binary tail); copy or export it again`;
+    }
     const tokLine = line;
     const role = roles[col];
     if (c === 39 || c === 34 || (c === 59 && pos === lineStart)) {
@@ -186,13 +194,24 @@ function readLoopRows(sc: ByteCifScanner, w: number, roles: Int8Array, sink: Row
     if (++col === w) {
       sink.endRow(rowLine);
       col = 0;
+      if (badLine === 0 && (lastLine !== rowLine || rowLine === prevEnd)) badLine = rowsDone > 0 ? rowLine : -1;
+      prevEnd = lastLine;
+      rowsDone++;
     }
   }
   sc.pos = pos; sc.line = line; sc.lineStart = lineStart;
   if (col !== 0) {
+    if (badLine > 0) {
+      sc.tline = badLine; sc.tcol = 1;
+      return `the values of the reflection loop do not fill whole rows of ${w}: the rows stop lining up here (a value is missing or extra on this line, or a value with spaces lacks its quotes); write ? for an unknown value`;
+    }
     sc.tline = lastLine; sc.tcol = lastCol;
+    if (pos >= n && rowLine !== prevEnd)
+      return `the last row of the reflection loop has ${col} values for ${w} tags: the file ends in the middle of a row and looks cut off; copy or export it again`;
     return `the last row of the reflection loop has ${col} values for ${w} tags`;
   }
+  if (badLine > 0)
+    sink.meta.warnings.push(`the rows of the reflection loop stop sitting one per line at line ${badLine}; check that no value is missing or extra there (the columns after it may be shifted)`);
   return '';
 }
 
@@ -277,15 +296,19 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
     const loopLine = sc.tline, loopCol = sc.tcol;
     if (!cur) return err("'loop_' before any data_ block header");
     const tags: string[] = [];
-    while ((kind = sc.next()) === T_TAG) tags.push(normaliseTag(sc.text()));
+    const tagLines: number[] = [];
+    while ((kind = sc.next()) === T_TAG) { tags.push(normaliseTag(sc.text())); tagLines.push(sc.tline); }
     if (kind === T_ERROR) return err(sc.error);
     if (tags.length === 0) return err("'loop_' without tags", loopLine, loopCol);
     sc.rewind();
     const isRefl = !inFrame && (wantColumns ? wantColumns.every((t) => tags.includes(t)) : isReflectionLoop(tags));
     if (isRefl) cur.reflectionLoops++;
     if (isRefl && !chosen && (wantBlock === undefined || cur.name.toLowerCase() === wantBlock)) {
+      const dup = tags.findIndex((t, j) => tags.indexOf(t) !== j);
+      if (dup >= 0)
+        return err(`tag '${tags[dup]}' appears twice in the reflection loop (lines ${tagLines[tags.indexOf(tags[dup])]} and ${tagLines[dup]})`, tagLines[dup], 1, 'Each column of a loop needs its own tag; remove or rename one.');
       const plan = planCifColumns(tags, opts.columns);
-      if (typeof plan === 'string') return err(plan, loopLine, loopCol);
+      if (typeof plan === 'string') return err(plan, loopLine, loopCol, 'Name the five columns to use with --columns h,k,l,value,sigma (tags of this loop).');
       chosen = cur;
       unmerged = plan.unmerged;
       meta.origin = plan.origin;
