@@ -83,7 +83,7 @@ export function planCifColumns(tags: readonly string[], override?: readonly stri
       roles[jv] = ROLE_VALUE; roles[tags.indexOf(sigmaTag)] = ROLE_SIGMA;
       return { roles, origin: pair.origin, unmerged: cat.unmerged, chosen: [...hkl.map((j) => tags[j]), pair.value, sigmaTag] };
     }
-    return `the reflection loop has indices but no measured values with sigmas (looked for ${cat.pairs.map((p) => p.value).join(', ')})`;
+    return `the reflection loop has indices but no measured values with sigmas (looked for ${cat.pairs.map((p) => p.value).join(', ')}; the loop has ${tags.join(', ')})`;
   }
   return 'no loop with _refln_index_h/_k/_l or _diffrn_refln_index_h/_k/_l';
 }

@@ -108,7 +108,7 @@ describe('lacuna inspect errors: exit 2 and an error: line with file and line', 
     const r = await inspect(['broken.cif'], dir);
     expect(r.code).toBe(2);
     expect(r.out).toBe('');
-    expect(r.err).toMatch(/^error: broken\.cif:21:7: the last row of the reflection loop has 4 values for 5 tags\n$/);
+    expect(r.err).toMatch(/^error: broken\.cif:21:7: the last row of the reflection loop has 4 values for 5 tags: the file ends in the middle of a row and looks cut off; copy or export it again\n$/);
   });
   it('missing file, bad --cell, bad block, unknown option, no file', async () => {
     let r = await inspect(['nope.cif'], dir);
