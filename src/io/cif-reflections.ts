@@ -286,7 +286,8 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
       if (vk === T_ERROR) return err(sc.error);
       if (vk !== T_VALUE) return err(`tag '${tagText}' has no value`, tline, tcol);
       if (!inFrame && HEADER_TAGS.has(tag)) {
-        if (cur.items.has(tag)) return err(`tag '${tagText}' occurs twice in data block '${cur.name}'`, tline, tcol);
+        if (cur.items.has(tag))
+          return err(`tag '${tagText}' occurs twice in data block '${cur.name}' (first on line ${cur.items.get(tag)!.line})`, tline, tcol, 'CIF allows each tag once per data block; keep the right one.');
         cur.items.set(tag, { start: sc.start, end: sc.end, vkind: sc.vkind, line: sc.tline });
       }
       kind = sc.next();
