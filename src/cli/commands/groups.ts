@@ -25,7 +25,7 @@ const spec: CommandSpec = {
     'The table shows conditions of one zone combined as International Tables print them (hkl: h+k, h+l, k+l = 2n).',
   ].join('\n'),
   minPositional: 0,
-  maxPositional: 0,
+  maxPositional: 8,
 };
 
 export function settingJson(s: SpaceGroupSetting): Record<string, unknown> {
@@ -104,6 +104,12 @@ export const command: Command = {
     if (args.flags.has('help')) {
       ctx.out(formatHelp(spec));
       return 0;
+    }
+    if (args.positional.length > 0) {
+      const name = args.values.get('name');
+      if (name !== undefined)
+        throw usageError(`'${[name, ...args.positional].join(' ')}' was split at the spaces; quote a symbol with spaces: --name '${[name, ...args.positional].join(' ')}'`, 'groups');
+      throw usageError(`'groups' takes no argument '${args.positional[0]}'; name a space group with --name SYMBOL or --number N`, 'groups');
     }
     const settings = selectSettings(args.values.get('name'), args.values.get('number'));
     if (args.flags.has('json')) {
