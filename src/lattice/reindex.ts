@@ -67,6 +67,10 @@ export function reindexTable(table: ReflectionTable, cob: ChangeOfBasis, options
         `(anomalous differences and the absolute structure flip); ${flipped} describes the same cell right-handed`,
     );
   }
+  if (Math.abs(det.num) > det.den) {
+    const v = det.den === 1 ? String(Math.abs(det.num)) : `${Math.abs(det.num)}/${det.den}`;
+    meta.warnings.push(`the new cell has ${v} times the volume of the old: only part of its reciprocal-lattice points can hold data, the others are absent by construction (as for a centred cell)`);
+  }
   if (nonIntegral) {
     meta.rejectedByReason[NON_INTEGRAL_REASON] = (meta.rejectedByReason[NON_INTEGRAL_REASON] ?? 0) + nonIntegral;
     meta.warnings.push(`${nonIntegral} reflections left out: ${NON_INTEGRAL_REASON} ${text} (first: ${firstBad})`);

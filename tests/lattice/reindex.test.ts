@@ -144,6 +144,8 @@ describe('reindexing a reflection table', () => {
     if (!r.ok) throw r.error;
     expect(r.value.meta.warnings.join()).toMatch(/determinant -1: the new axes are left-handed.*-a,-b,a\+c describes the same cell right-handed/);
     expect(reindexTable(t, cob('-a-c,b,a')).ok && reindexTable(t, cob('-a-c,b,a')).ok).toBe(true);
+    const big = reindexTable(randomTable(10, 3), cob('a,b,2c'));
+    expect(big.ok && big.value.meta.warnings.join()).toMatch(/2 times the volume/);
     const e = reindexTable(t, cob('b,c,a'));
     expect(e.ok && e.value.n).toBe(0);
   });
