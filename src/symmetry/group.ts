@@ -1,4 +1,4 @@
-import { composeOps, identityOp, isIdentityRotation, opKey, rotationKey, rotationType, type SymOp } from './ops';
+import { composeInto, identityOp, isIdentityRotation, opKey, rotationKey, rotationType, type SymOp } from './ops';
 
 /** A group larger than this is not a crystallographic space group modulo lattice translations. */
 const MAX_ORDER = 192;
@@ -22,13 +22,15 @@ export function closeGroup(generators: readonly SymOp[]): SymOp[] | undefined {
   }
   // Every element is a product of generators, so closing under left multiplication by the
   // generators alone reaches the whole (finite) group: |G| x |generators| products.
+  // products go into scratch space first; only new operations are allocated
+  const scratch: SymOp = { r: new Int32Array(9), t: new Int32Array(3) };
   for (let i = 0; i < ops.length; i++) {
     for (const g of gens) {
-      const prod = composeOps(g, ops[i]);
-      const k = opKey(prod);
+      composeInto(g, ops[i], scratch);
+      const k = opKey(scratch);
       if (seen.has(k)) continue;
       seen.add(k);
-      ops.push(prod);
+      ops.push({ r: scratch.r.slice(), t: scratch.t.slice() });
       if (ops.length > MAX_ORDER) return undefined;
     }
   }

@@ -44,8 +44,15 @@ export function translationOp(t: ArrayLike<number>): SymOp {
 
 /** a * b: first b, then a (x -> Ra (Rb x + tb) + ta). */
 export function composeOps(a: SymOp, b: SymOp): SymOp {
-  const r = new Int32Array(9);
-  const t = new Int32Array(3);
+  const out = { r: new Int32Array(9), t: new Int32Array(3) };
+  composeInto(a, b, out);
+  return out;
+}
+
+/** composeOps into existing storage (`out` must not be `a` or `b`). */
+export function composeInto(a: SymOp, b: SymOp, out: SymOp): void {
+  const r = out.r;
+  const t = out.t;
   for (let i = 0; i < 3; i++) {
     let s = a.t[i];
     for (let j = 0; j < 3; j++) {
@@ -56,7 +63,6 @@ export function composeOps(a: SymOp, b: SymOp): SymOp {
     }
     t[i] = mod(s, DEN);
   }
-  return { r, t };
 }
 
 export function det3(m: ArrayLike<number>): number {
@@ -109,11 +115,13 @@ export function opKey(op: SymOp): number {
 /** Exact hash of a rotation part (entries must lie in -2..2, true of every setting here). */
 export function rotationKey(r: ArrayLike<number>): number {
   let key = 0;
+  let bad = false;
   for (let j = 0; j < 9; j++) {
     const v = r[j];
-    if (v < -2 || v > 2) throw new Error(`rotationKey: entry ${v} outside -2..2`);
+    bad ||= v < -2 || v > 2;
     key = key * 5 + (v + 2);
   }
+  if (bad) throw new Error(`rotationKey: entry outside -2..2 in ${Array.from(r)}`);
   return key;
 }
 
