@@ -17,6 +17,8 @@ import { renderStats } from './panels/stats-plots';
 import { inZone, layerForRule, ruleForbids, type Rule } from './rules';
 import { syntheticTable } from './synthetic';
 import { installShortcuts } from './shortcuts';
+import { buildGuidePanel, type GuidePanel } from './guide';
+import { allSettings } from '../symmetry';
 import type { PointCloud } from '../../shaders-free-render';
 
 /** The demo list (public/demo/demo.json, invented samples) names the data set opened when the address names none. */
@@ -57,6 +59,7 @@ class App {
   /** A model to load once the data are in (?model=URL). */
   pendingModelUrl: string | undefined;
   gui: GUI;
+  guide: GuidePanel | undefined;
   private dMinController: ReturnType<GUI['add']> | undefined;
   private loadStarted = 0;
   private firstPictureDone = false;
@@ -71,6 +74,7 @@ class App {
     badge.dataset.renderer = choice.kind;
     this.layer = new LayerPanel(byId<HTMLCanvasElement>('layer-canvas'), byId('layer-host'), byId('layer-readout'), byId('layer-presets'), byId<HTMLInputElement>('layer-free'), byId('layer-status'));
     byId('layer-export').addEventListener('click', () => this.layer.exportPng());
+    this.layer.onChange = () => this.updateGuide();
     this.loader = new DataLoader({
       progress: (stage, f, name) => this.progress(`${stage} ${name}`, f),
       table: (t, name) => this.onTable(t, name),
@@ -101,17 +105,24 @@ class App {
   }
 
   private mountGuide(): void {
-    // The guide panel is written separately; mount it when its module is present.
-    const mods = import.meta.glob('./guide/index.ts');
-    const load = mods['./guide/index.ts'];
-    if (!load) return;
-    void load().then((m) => {
-      const build = (m as { buildGuidePanel?: (host: HTMLElement) => unknown }).buildGuidePanel;
-      if (typeof build !== 'function') return;
-      const slot = byId('guide-slot');
-      slot.hidden = false;
-      build(slot);
-    }).catch((e: unknown) => console.warn('guide panel failed to load', e));
+    const slot = byId('guide-slot');
+    slot.hidden = false;
+    this.guide = buildGuidePanel(slot, {}, { onAxisHighlight: (axis) => this.lattice.setHighlightAxis(axis) });
+  }
+
+  /** Tells the conventions guide what is on screen: data, layer, selected candidate and its sibling settings. */
+  updateGuide(): void {
+    if (!this.guide) return;
+    const a = this.analysis;
+    const c = a && this.candidate >= 0 ? a.candidates[this.candidate] : undefined;
+    const siblings = c ? allSettings().filter((s) => s.number === c.number && s.hm !== c.hm).map((s) => ({ hm: s.hm, rules: s.conditions })) : undefined;
+    this.guide.update({
+      table: this.ds?.table,
+      cell: this.ds && !this.ds.cellAssumed ? this.ds.cell.params() : undefined,
+      layer: this.layer.plane,
+      candidate: c ? { hm: c.hm, rules: c.rules } : undefined,
+      settings: siblings,
+    });
   }
 
   private wireFileInputs(): void {
@@ -287,6 +298,7 @@ class App {
   }
 
   refreshEvidence(): void {
+    this.updateGuide();
     const a = this.analysis;
     renderCandidates(byId('candidates-panel').querySelector('.body') as HTMLElement, a, this.candidate, (j) => this.selectCandidate(j));
     renderConditions(byId('conditions-panel').querySelector('.body') as HTMLElement, a, this.condition, (j) => this.selectCondition(j));

@@ -26,6 +26,7 @@ export class LatticeView {
   private readonly vp = new Float64Array(16);
   private resizeObserver: ResizeObserver;
   private down: { x: number; y: number } | undefined;
+  private highlight: string | null = null;
 
   constructor(private host: HTMLElement, kind: RendererKind, private onPick: (row: number) => void) {
     this.renderer = kind === 'webgl' ? new WebGlPointRenderer() : new CpuPointRenderer();
@@ -106,6 +107,12 @@ export class LatticeView {
     this.viewFrom(new Vector3(1, -1.5, 0.85));
   }
 
+  /** Emphasises one axis ('a*', 'b*', 'c*', or the direct 'a', 'b', 'c' drawn dashed), or none. */
+  setHighlightAxis(axis: string | null): void {
+    this.highlight = axis;
+    this.requestRender();
+  }
+
   /** Shows a ring around table row `row` (or none with -1). */
   setPicked(row: number): void {
     this.picked = row;
@@ -168,9 +175,21 @@ export class LatticeView {
       const w = projectPoint(vp, f[3 * j] * s, f[3 * j + 1] * s, f[3 * j + 2] * s, p1);
       if (w <= 0) continue;
       const e = toPx(p1);
-      this.overlay.append(svg('line', { x1: o[0], y1: o[1], x2: e[0], y2: e[1], class: `axis ${cls[j]}` }));
+      const hi = this.highlight === names[j] ? ' highlight' : '';
+      this.overlay.append(svg('line', { x1: o[0], y1: o[1], x2: e[0], y2: e[1], class: `axis ${cls[j]}${hi}` }));
       const dx = e[0] - o[0], dy = e[1] - o[1], dl = Math.hypot(dx, dy) || 1;
-      this.overlay.append(svg('text', { x: e[0] + (dx / dl) * 12, y: e[1] + (dy / dl) * 12 + 4, class: `axis-label ${cls[j]}`, 'text-anchor': 'middle' }, names[j]));
+      this.overlay.append(svg('text', { x: e[0] + (dx / dl) * 12, y: e[1] + (dy / dl) * 12 + 4, class: `axis-label ${cls[j]}${hi}`, 'text-anchor': 'middle' }, names[j]));
+    }
+    // A direct axis on request (from the conventions guide): dashed, along the real-space vector.
+    const direct = ['a', 'b', 'c'].indexOf(this.highlight ?? '');
+    if (direct >= 0) {
+      const v = this.ds.cell.directBasis(direct as 0 | 1 | 2);
+      const s = (this.extent * 0.55) / (Math.hypot(v[0], v[1], v[2]) || 1);
+      if (projectPoint(vp, v[0] * s, v[1] * s, v[2] * s, p1) > 0) {
+        const e = toPx(p1);
+        this.overlay.append(svg('line', { x1: o[0], y1: o[1], x2: e[0], y2: e[1], class: `axis direct ${cls[direct]} highlight` }));
+        this.overlay.append(svg('text', { x: e[0] + 8, y: e[1] - 6, class: `axis-label ${cls[direct]} highlight` }, `${names[direct][0]} (direct)`));
+      }
     }
     if (this.picked >= 0) {
       const pos = this.screenPositionOf(this.picked);
