@@ -1,0 +1,70 @@
+// Ranking benchmark: `lacuna rank` as a whole process on 1,000,000 reflections merged in P-1
+// (a monoclinic cell with 2/m symmetry in the intensities and a 21 screw axis along b;
+// generated into a temp folder, never committed), with peak memory; then the full accuracy
+// suite (all 230 standard settings and the common non-standard ones) on simulated data.
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, writeFileSync, existsSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { median, reportBench } from './bench-util';
+import { runSuite, suiteSettings } from '../analysis/rank-accuracy';
+
+const root = process.env.LACUNA_ROOT ?? process.cwd();
+const cli = resolve(root, 'src/cli/bin.mjs');
+if (!existsSync(resolve(root, 'dist/cli/lacuna.js'))) spawnSync('npx', ['vite', 'build', '--mode', 'cli'], { cwd: root, stdio: 'inherit' });
+
+function makeFile(target: number): string {
+  let x = 88172645;
+  const rnd = () => { x ^= x << 13; x >>>= 0; x ^= x >>> 17; x ^= x << 5; x >>>= 0; return x / 4294967296; };
+  const a = 30, b = 32, c = 36, beta = 100;
+  // true intensities for the unique set, shared by (h,k,l) and (-h,k,-l)
+  const lines: string[] = [];
+  const H = 80, K = 80, L = 90;
+  const cb = Math.cos((beta * Math.PI) / 180), sb = Math.sin((beta * Math.PI) / 180);
+  const cache = new Map<number, number>();
+  for (let h = -H; h <= H && lines.length < target; h++)
+    for (let k = 0; k <= K && lines.length < target; k++)
+      for (let l = -L; l <= L && lines.length < target; l++) {
+        if (k === 0 && (l < 0 || (l === 0 && h <= 0))) continue;
+        const s2 = (h * h / (a * a) + l * l / (c * c) - (2 * h * l * cb) / (a * c)) / (sb * sb) + (k * k) / (b * b);
+        if (s2 > 5.8) continue;
+        const key = (h >= 0 ? h : -h) * 100000 + k * 1000 + (h >= 0 ? l : -l) + 500;
+        let t = cache.get(key);
+        if (t === undefined) { t = -Math.log(1 - rnd()) * 1000 * Math.exp(-2 * s2); cache.set(key, t); }
+        if (h === 0 && l === 0 && k % 2 === 1) t = 0;
+        const s = Math.sqrt(t + 20 + 0.0009 * t * t);
+        lines.push(`${h} ${k} ${l} ${(t + s * (rnd() + rnd() + rnd() - 1.5) * 2).toFixed(1)} ${s.toFixed(1)}`);
+      }
+  const head = ['data_bench_rank', `_cell_length_a ${a}`, `_cell_length_b ${b}`, `_cell_length_c ${c}`, '_cell_angle_alpha 90', `_cell_angle_beta ${beta}`, '_cell_angle_gamma 90',
+    'loop_', '_refln_index_h', '_refln_index_k', '_refln_index_l', '_refln_F_squared_meas', '_refln_F_squared_sigma'];
+  const dir = join(tmpdir(), 'lacuna-bench-data');
+  mkdirSync(dir, { recursive: true });
+  const file = join(dir, 'rank-1m.cif');
+  writeFileSync(file, head.join('\n') + '\n' + lines.join('\n') + '\n');
+  process.stderr.write(`rank bench: ${lines.length} reflections in ${file}\n`);
+  return file;
+}
+
+const file = makeFile(1_000_000);
+const times: number[] = [];
+const rss: number[] = [];
+let top = '';
+for (let r = 0; r < 5; r++) {
+  const t0 = performance.now();
+  const p = spawnSync('/usr/bin/time', ['-f', '%M', process.execPath, cli, 'rank', file, '--json'], { encoding: 'utf8', maxBuffer: 256 << 20 });
+  times.push((performance.now() - t0) / 1000);
+  if (p.status !== 0) throw new Error(`lacuna rank failed: ${p.stderr}`);
+  rss.push(Number(p.stderr.trim().split('\n').pop()) / 1024);
+  top = JSON.parse(p.stdout).candidates[0].hm;
+}
+reportBench('rank', { name: 'lacuna rank, 1M reflections merged in P-1 (whole process)', median: median(times), unit: 's', runs: times.length, target: '<= 1.5 s', note: `top: ${top}` });
+reportBench('rank', { name: 'lacuna rank, 1M reflections: peak resident memory', median: median(rss), unit: 'MB', runs: rss.length, target: '< 300 MB' });
+
+const { standard, nonStandard } = suiteSettings();
+const t0 = performance.now();
+const o = runSuite([...standard, ...nonStandard]);
+const secs = (performance.now() - t0) / 1000;
+process.stderr.write(o.failures.join('\n') + '\n');
+reportBench('rank', { name: `accuracy suite, top class right (${o.total} settings)`, median: (100 * o.top1) / o.total, unit: '%', runs: 1, target: '>= 97 %', note: `${secs.toFixed(0)} s` });
+reportBench('rank', { name: 'accuracy suite, truth among the top 5 classes', median: (100 * o.top5) / o.total, unit: '%', runs: 1, target: '>= 99 %' });
+reportBench('rank', { name: 'accuracy suite, confident wrong answers (p > 0.9)', median: o.confidentWrong, unit: 'cases', runs: 1, target: '0' });
