@@ -305,9 +305,13 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
     const isRefl = !inFrame && (wantColumns ? wantColumns.every((t) => tags.includes(t)) : isReflectionLoop(tags));
     if (isRefl) cur.reflectionLoops++;
     if (isRefl && !chosen && (wantBlock === undefined || cur.name.toLowerCase() === wantBlock)) {
-      const dup = tags.findIndex((t, j) => tags.indexOf(t) !== j);
-      if (dup >= 0)
-        return err(`tag '${tags[dup]}' appears twice in the reflection loop (lines ${tagLines[tags.indexOf(tags[dup])]} and ${tagLines[dup]})`, tagLines[dup], 1, 'Each column of a loop needs its own tag; remove or rename one.');
+      const firstAt = new Map<string, number>(); // linear even for a loop with a million tags
+      for (let j = 0; j < tags.length; j++) {
+        const first = firstAt.get(tags[j]);
+        if (first !== undefined)
+          return err(`tag '${tags[j]}' appears twice in the reflection loop (lines ${tagLines[first]} and ${tagLines[j]})`, tagLines[j], 1, 'Each column of a loop needs its own tag; remove or rename one.');
+        firstAt.set(tags[j], j);
+      }
       const plan = planCifColumns(tags, opts.columns);
       if (typeof plan === 'string') return err(plan, loopLine, loopCol, 'Name the five columns to use with --columns h,k,l,value,sigma (tags of this loop).');
       chosen = cur;
