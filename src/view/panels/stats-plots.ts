@@ -21,7 +21,7 @@ function frame(title: string, xLabel: string, yLabel: string): { root: SVGSVGEle
   return { root, plot };
 }
 
-function axes(plot: SVGGElement, x: { (v: number): number; ticks(n: number): number[] }, y: { (v: number): number; ticks(n: number): number[] }, xf = (v: number) => fmt(v, 2), yf = (v: number) => fmt(v, 1)): void {
+function axes(plot: SVGGElement, x: { (v: number): number; ticks(n: number): number[] }, y: { (v: number): number; ticks(n: number): number[] }, xf: (v: number) => string = (v) => fmt(v, 2), yf: (v: number) => string = (v) => fmt(v, 1)): void {
   plot.append(svg('line', { x1: M.l, y1: H - M.b, x2: W - M.r, y2: H - M.b, class: 'plot-axis' }));
   plot.append(svg('line', { x1: M.l, y1: M.t, x2: M.l, y2: H - M.b, class: 'plot-axis' }));
   for (const t of x.ticks(4)) {
@@ -46,7 +46,7 @@ export function wilsonPlot(s: StatisticsView | undefined): SVGSVGElement {
   const x = scaleLinear().domain([0, Math.max(...pts.map((p) => p.s2)) * 1.05]).range([M.l, W - M.r]);
   const ys = pts.map((p) => p.lnMeanI);
   const y = scaleLinear().domain([Math.min(...ys) - 0.3, Math.max(...ys) + 0.3]).range([H - M.b, M.t]).nice();
-  axes(plot, x, y, (v) => fmt(v, 2), (v) => fmt(v, 0));
+  axes(plot, x, y, x.tickFormat(4), y.tickFormat(4));
   if (s?.wilsonB !== undefined && s.wilsonLnK !== undefined) {
     const x0 = x.domain()[0], x1 = x.domain()[1];
     polyline(plot, [[x(x0), y(s.wilsonLnK - 2 * s.wilsonB * x0)], [x(x1), y(s.wilsonLnK - 2 * s.wilsonB * x1)]], 'fit-line');
