@@ -22,6 +22,7 @@ export {
   rotationOrder,
   rotationType,
   det3,
+  adjugate3,
 } from './ops';
 export { parseHall, type HallGenerators } from './hall';
 export {

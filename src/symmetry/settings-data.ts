@@ -3,7 +3,9 @@
 // Space-group settings of International Tables for Crystallography Vol. A, Table 4.3.2.1
 // (number, extended Hermann-Mauguin symbol with :1/:2 origin choice or :H/:R axes) and their
 // Hall symbols (Hall 1981, Acta Cryst. A37, 517-525; International Tables Vol. B, Table A1.4.2.7),
-// as tabulated by gemmi 0.5.7, gemmi.spacegroup_table() (559 entries).
+// as tabulated by gemmi 0.5.7, gemmi.spacegroup_table() (559 entries). gemmi also lists a few settings
+// beyond Table 4.3.2.1 (for example C- and F-centred tetragonal cells such as C -4 2 m, F 4/m m m);
+// they are kept as gemmi lists them.
 // Columns: ITA number, H-M symbol, Hall symbol, extension (origin choice / axes), qualifier
 // (unique axis and cell choice, or axis permutation).
 
