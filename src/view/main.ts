@@ -6,7 +6,8 @@ import { byId, clear, el, fmt } from './dom';
 import { makeDataset, type Dataset } from './dataset';
 import { DataLoader } from './loader';
 import type { AnalysisView } from './analysis-view';
-import { chooseRenderer } from './render3d/choose-renderer';
+import { chooseRenderer, type RendererChoice } from './render3d/choose-renderer';
+import { createPointRenderer, type PointRenderer } from './render3d/point-renderer';
 import { LatticeView } from './render3d/lattice-view';
 import { buildCloud, type ColourMode } from './render3d/lattice-cloud';
 import { LayerPanel } from './layer-panel';
@@ -64,10 +65,9 @@ class App {
   private loadStarted = 0;
   private firstPictureDone = false;
 
-  constructor() {
+  constructor(renderer: PointRenderer, choice: RendererChoice) {
     byId('caution').textContent = CAUTION;
-    const choice = chooseRenderer(params.get('renderer'));
-    this.lattice = new LatticeView(byId('lattice-host'), choice.kind, (row) => this.showPick(row));
+    this.lattice = new LatticeView(byId('lattice-host'), renderer, (row) => this.showPick(row));
     const badge = byId('renderer-badge');
     badge.textContent = choice.kind === 'cpu' ? 'CPU renderer' : 'WebGL renderer';
     badge.title = choice.reason;
@@ -381,8 +381,9 @@ class App {
 
 export type { App };
 
-function start(): void {
-  const app = new App();
+async function start(): Promise<void> {
+  const choice = chooseRenderer(params.get('renderer'));
+  const app = new App(await createPointRenderer(choice.kind), choice);
   (window as unknown as { lacuna: App }).lacuna = app;
   const synthetic = params.get('synthetic');
   const data = params.get('data');
@@ -405,4 +406,4 @@ function start(): void {
   }
 }
 
-start();
+void start();

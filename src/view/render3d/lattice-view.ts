@@ -3,8 +3,6 @@ import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import { multiplyMat4, pickPoint, projectPoint, type PointCloud } from '../../../shaders-free-render';
 import { clear, svg } from '../dom';
 import type { Dataset } from '../dataset';
-import { CpuPointRenderer } from './cpu-renderer';
-import { WebGlPointRenderer } from './webgl-renderer';
 import type { PointRenderer, RendererKind } from './point-renderer';
 
 /**
@@ -14,7 +12,6 @@ import type { PointRenderer, RendererKind } from './point-renderer';
  */
 export class LatticeView {
   readonly camera = new PerspectiveCamera(32, 1, 0.001, 100);
-  readonly renderer: PointRenderer;
   private controls: OrbitControls;
   private overlay: SVGSVGElement;
   private ds: Dataset | undefined;
@@ -28,10 +25,9 @@ export class LatticeView {
   private down: { x: number; y: number } | undefined;
   private highlight: string | null = null;
 
-  constructor(private host: HTMLElement, kind: RendererKind, private onPick: (row: number) => void) {
-    this.renderer = kind === 'webgl' ? new WebGlPointRenderer() : new CpuPointRenderer();
+  constructor(private host: HTMLElement, readonly renderer: PointRenderer, private onPick: (row: number) => void) {
     this.renderer.canvas.className = 'lattice-canvas';
-    this.renderer.canvas.dataset.renderer = kind;
+    this.renderer.canvas.dataset.renderer = renderer.kind;
     this.overlay = svg('svg', { class: 'lattice-overlay' });
     host.append(this.renderer.canvas, this.overlay);
     this.camera.up.set(0, 0, 1);
@@ -208,7 +204,7 @@ export class LatticeView {
       this.camera.lookAt(0, 0, 0);
       const t0 = performance.now();
       this.renderer.render(this.camera);
-      if (this.renderer instanceof WebGlPointRenderer) this.renderer.finish();
+      this.renderer.finish?.();
       times.push(performance.now() - t0);
     }
     this.camera.position.copy(start);

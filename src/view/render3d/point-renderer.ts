@@ -17,6 +17,21 @@ export interface PointRenderer {
   setRadiusScale(s: number): void;
   resize(cssWidth: number, cssHeight: number): void;
   render(camera: PerspectiveCamera): void;
+  /** Waits until the frame is really drawn (benchmarks); CPU frames are done when render returns. */
+  finish?(): void;
   /** Frees GPU memory, buffers and listeners. */
   dispose(): void;
+}
+
+/**
+ * Makes the renderer of the given kind. The WebGL one (three.js's renderer,
+ * the bulk of the bundle) is loaded only when it is chosen.
+ */
+export async function createPointRenderer(kind: RendererKind): Promise<PointRenderer> {
+  if (kind === 'webgl') {
+    const { WebGlPointRenderer } = await import('./webgl-renderer');
+    return new WebGlPointRenderer();
+  }
+  const { CpuPointRenderer } = await import('./cpu-renderer');
+  return new CpuPointRenderer();
 }
