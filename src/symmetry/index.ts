@@ -23,6 +23,8 @@ export {
   rotationType,
   det3,
   adjugate3,
+  mul3,
+  isIdentityRotation,
 } from './ops';
 export { parseHall, type HallGenerators } from './hall';
 export {

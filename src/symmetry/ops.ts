@@ -314,7 +314,8 @@ export function changeBasisOp(
   return ok({ r, t });
 }
 
-function mul3(a: ArrayLike<number>, b: ArrayLike<number>): number[] {
+/** Product of two 3x3 row-major integer matrices. */
+export function mul3(a: ArrayLike<number>, b: ArrayLike<number>): number[] {
   const c = new Array<number>(9).fill(0);
   for (let i = 0; i < 3; i++)
     for (let j = 0; j < 3; j++) {
