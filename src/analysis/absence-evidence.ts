@@ -1,5 +1,7 @@
 import type { ReflectionTable } from '../core';
-import { clamp, logAddExp, logNormalCdf, logNormalPdf } from './special-functions';
+import { clamp, logNormalCdf } from './special-functions';
+
+const LOG_SQRT_2PI = 0.5 * Math.log(2 * Math.PI);
 
 /** A reflection condition as the symmetry layer and `lacuna groups` give it. */
 export interface ConditionLike {
@@ -11,6 +13,16 @@ export interface ConditionLike {
 
 export function conditionKey(c: ConditionLike): string {
   return `${c.zone.map((e) => e.join(',')).join(';')}|${c.coeffs.join(',')}|${c.modulus}`;
+}
+
+/** A fast test for one condition (flat integer arrays, no allocation per call). */
+export function compileForbids(c: ConditionLike): (h: number, k: number, l: number) => boolean {
+  const rows = Int32Array.from(c.zone.flat());
+  const c0 = c.coeffs[0], c1 = c.coeffs[1], c2 = c.coeffs[2], m = c.modulus;
+  return (h, k, l) => {
+    for (let e = 0; e < rows.length; e += 3) if (rows[e] * h + rows[e + 1] * k + rows[e + 2] * l !== 0) return false;
+    return (c0 * h + c1 * k + c2 * l) % m !== 0;
+  };
 }
 
 /** Is h in the zone of the condition and forbidden by it? (conventions, section 2) */
@@ -75,7 +87,11 @@ export interface AbsenceModel {
 export function reflectionLogOdds(I: number, sigma: number, S: number, model: AbsenceModel): number {
   const s = Math.max(model.k * sigma, 1e-12 * Math.max(S, 1));
   const eps = model.violationFraction;
-  const la = logAddExp(Math.log(1 - eps) + logNormalPdf(I, s), Math.log(eps) + logNormalPdf(I, 4 * s));
+  // log[(1-eps) N(I; 0, s^2) + eps N(I; 0, (4s)^2)], one exp and one log unless far in the tail
+  const u2 = (I / s) * (I / s);
+  const la = u2 < 1400
+    ? Math.log((1 - eps) * Math.exp(-0.5 * u2) + 0.25 * eps * Math.exp(-u2 / 32)) - Math.log(s) - LOG_SQRT_2PI
+    : Math.log(0.25 * eps) - u2 / 32 - Math.log(s) - LOG_SQRT_2PI;
   const Sp = Math.max(S, 1e-30);
   const lp = -Math.log(Sp) - I / Sp + (s * s) / (2 * Sp * Sp) + logNormalCdf((I - (s * s) / Sp) / s);
   return clamp(la - lp, -12, 4);
@@ -94,9 +110,11 @@ export const MISSING_CLASS_CAP = 10;
  * probability (1/m)^N if the forbidden class were present. Files filtered by their depositor
  * make this the only trace of the absences, but it mirrors the depositor's choice as much as
  * the crystal, so it enters with weight 1/2 and at most 10 nats per condition (a judgement).
+ * `stride` > 1 evaluates every stride-th reflection only (a quick first look on large data).
  */
 export function absenceEvidence(
   table: ReflectionTable, expected: Float64Array, conditions: readonly ConditionLike[], model: AbsenceModel,
+  stride = 1,
 ): AbsenceEvidence {
   const n = table.n;
   const nc = conditions.length;
@@ -122,48 +140,79 @@ export function absenceEvidence(
   const nForb = new Int32Array(nc), nStrong = new Int32Array(nc), nWeak = new Int32Array(nc);
   const sumIs = new Float64Array(nc), sumLo = new Float64Array(nc);
   const strongest: number[][] = conditions.map(() => []);
+  // I/sigma a reflection must beat to enter a condition's list of the ten strongest
+  const strongMin = new Float64Array(nc).fill(-Infinity);
   const perReflection = new Float64Array(n).fill(NaN);
-  const patternMap = new Map<string, { ids: number[]; logOdds: number; count: number }>();
+  // Patterns are keyed by a number: the bit set of the conditions (exact up to 52 conditions),
+  // else by text.
+  const numericKeys = nc <= 52;
+  const patternByNumber = new Map<number, { ids: number[]; logOdds: number; count: number }>();
+  const patternByText = new Map<string, { ids: number[]; logOdds: number; count: number }>();
+  const zoneFlat = zoneRows.map((rows) => Int32Array.from(rows.flat()));
+  const condsOfZoneFlat = condsOfZone.map((c) => Int32Array.from(c));
+  const coeffFlat = Int32Array.from(coeffs.flat());
+  const modFlat = Int32Array.from(moduli);
   const ids: number[] = [];
+  // Reflections that only lattice-centring conditions (no zone) forbid can number half a
+  // million; beyond 200,000 of them the log-odds is evaluated for every m-th one and counted
+  // m times (the counts and I/sigma figures stay exact).
+  const zoneless = zoneFlat.map((r) => r.length === 0);
+  const m = Math.max(1, Math.floor(n / stride / 200_000));
+  let zonelessSeen = 0;
 
-  for (let j = 0; j < n; j++) {
+  for (let j = 0; j < n; j += stride) {
     const h = table.h[j], k = table.k[j], l = table.l[j];
     ids.length = 0;
-    for (let z = 0; z < zones.length; z++) {
-      const rows = zoneRows[z];
+    let key = 0;
+    let onlyZoneless = true;
+    for (let z = 0; z < zoneFlat.length; z++) {
+      const rows = zoneFlat[z];
       let inZone = true;
-      for (let e = 0; e < rows.length; e++) {
-        const r = rows[e];
-        if (r[0] * h + r[1] * k + r[2] * l !== 0) { inZone = false; break; }
+      for (let e = 0; e < rows.length; e += 3) {
+        if (rows[e] * h + rows[e + 1] * k + rows[e + 2] * l !== 0) { inZone = false; break; }
       }
       if (!inZone) continue;
       nZone[z]++;
-      const cz = condsOfZone[z];
+      const cz = condsOfZoneFlat[z];
       for (let q = 0; q < cz.length; q++) {
         const c = cz[q];
-        const co = coeffs[c];
-        if ((co[0] * h + co[1] * k + co[2] * l) % moduli[c] !== 0) ids.push(c);
+        if ((coeffFlat[3 * c] * h + coeffFlat[3 * c + 1] * k + coeffFlat[3 * c + 2] * l) % modFlat[c] !== 0) {
+          ids.push(c);
+          if (!zoneless[z]) onlyZoneless = false;
+          if (numericKeys) key += 2 ** c;
+        }
       }
     }
     if (ids.length === 0) continue;
     const sig = table.sigma[j];
     const I = table.i[j];
-    const lo = reflectionLogOdds(I, sig, expected[j], model);
-    perReflection[j] = lo;
+    let lo = 0, weight = 1;
+    if (!onlyZoneless || m === 1 || zonelessSeen++ % m === 0) {
+      lo = reflectionLogOdds(I, sig, expected[j], model);
+      perReflection[j] = lo;
+      if (onlyZoneless) weight = m;
+    }
     const ios = sig > 0 ? I / sig : 0;
-    ids.sort((a, b) => a - b);
-    for (const c of ids) {
+    for (let q = 0; q < ids.length; q++) {
+      const c = ids[q];
       nForb[c]++;
       sumIs[c] += ios;
-      sumLo[c] += lo;
+      sumLo[c] += weight * lo;
       if (ios >= 3) nStrong[c]++;
       if (ios >= 2 && ios < 6) nWeak[c]++;
-      insertStrongest(strongest[c], j, table);
+      if (ios > strongMin[c]) strongMin[c] = insertStrongest(strongest[c], j, ios, table);
     }
-    const key = ids.join(',');
-    let p = patternMap.get(key);
-    if (!p) { p = { ids: ids.slice(), logOdds: 0, count: 0 }; patternMap.set(key, p); }
-    p.logOdds += lo;
+    let p;
+    if (numericKeys) {
+      p = patternByNumber.get(key);
+      if (!p) { p = { ids: ids.slice().sort((a, b) => a - b), logOdds: 0, count: 0 }; patternByNumber.set(key, p); }
+    } else {
+      ids.sort((a, b) => a - b);
+      const text = ids.join(',');
+      p = patternByText.get(text);
+      if (!p) { p = { ids: ids.slice(), logOdds: 0, count: 0 }; patternByText.set(text, p); }
+    }
+    p.logOdds += weight * lo;
     p.count++;
   }
 
@@ -186,17 +235,17 @@ export function absenceEvidence(
       strongest: strongest[j],
     };
   });
-  return { conditions: out, indexOf, patterns: [...patternMap.values()], reflectionLogOdds: perReflection };
+  return { conditions: out, indexOf, patterns: [...patternByNumber.values(), ...patternByText.values()], reflectionLogOdds: perReflection };
 }
 
-function insertStrongest(list: number[], j: number, table: ReflectionTable): void {
+/** Insert row j (with I/sigma v) into a list of at most ten rows, strongest first; returns the new entry threshold. */
+function insertStrongest(list: number[], j: number, v: number, table: ReflectionTable): number {
   const ios = (r: number) => (table.sigma[r] > 0 ? table.i[r] / table.sigma[r] : 0);
-  const v = ios(j);
-  if (list.length === 10 && v <= ios(list[9])) return;
   let p = list.length;
   while (p > 0 && ios(list[p - 1]) < v) p--;
   list.splice(p, 0, j);
   if (list.length > 10) list.pop();
+  return list.length === 10 ? ios(list[9]) : -Infinity;
 }
 
 /**

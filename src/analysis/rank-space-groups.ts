@@ -1,7 +1,7 @@
 import { fail, ok, type CellParams, type ReflectionTable, type Result } from '../core';
 import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis } from '../lattice';
 import { allSettings, changeBasisOp, opSetKey, type SpaceGroupSetting } from '../symmetry';
-import { absenceEvidence, conditionKey, forbiddenSubset, forbids, type ConditionLike } from './absence-evidence';
+import { absenceEvidence, compileForbids, conditionKey, forbiddenSubset, forbids, type ConditionLike } from './absence-evidence';
 import { candidateSettings, DEFAULT_TOLERANCE, metricLogPenalty, type MetricTolerance } from './candidates';
 import { HklIndex } from './hkl-index';
 import { intensityStatistics, THEORY } from './intensity-statistics';
@@ -369,14 +369,16 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   // above all) are left out of the normalisation, the statistics and the Laue test, where pairs
   // of zeros would agree trivially and dilute the shell means.
   const model = { k, violationFraction: 0.03 };
-  let abs = absenceEvidence(table, expected, condList, model);
+  // a sample of 200,000 reflections is plenty to see which conditions clearly hold
+  let abs = absenceEvidence(table, expected, condList, model, Math.max(1, Math.floor(n / 200_000)));
+  const clearTests = () => abs.conditions.filter((c) => c.probabilityAbsent > 0.999 && c.n >= 10).map((c) => compileForbids(c.condition));
   const excludeClear = () => {
-    const clear = abs.conditions.filter((c) => c.probabilityAbsent > 0.999 && c.n >= 10);
+    const clear = clearTests();
     let changed = false;
     for (let j = 0; j < n; j++) {
       if (!use[j] && !general[j]) continue;
       let out = false;
-      for (const c of clear) if (forbids(c.condition, table.h[j], table.k[j], table.l[j])) { out = true; break; }
+      for (const f of clear) if (f(table.h[j], table.k[j], table.l[j])) { out = true; break; }
       const u = out ? 0 : general[j];
       if (u !== use[j]) { use[j] = u; changed = true; }
     }
@@ -384,10 +386,10 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   };
   const laueUse = new Uint8Array(n).fill(1);
   const refreshLaueUse = () => {
-    const clear = abs.conditions.filter((c) => c.probabilityAbsent > 0.999 && c.n >= 10);
+    const clear = clearTests();
     for (let j = 0; j < n; j++) {
       let out = 0;
-      for (const c of clear) if (forbids(c.condition, table.h[j], table.k[j], table.l[j])) { out = 1; break; }
+      for (const f of clear) if (f(table.h[j], table.k[j], table.l[j])) { out = 1; break; }
       laueUse[j] = out ? 0 : 1;
     }
   };
@@ -722,7 +724,7 @@ function estimateCompleteness(table: ReflectionTable, proper: number[][], volume
   if (!(s2max > 0)) return null;
   const rots = proper.concat(proper.map((r) => r.map((v) => -v)));
   const seen = new Set<number>();
-  const stride = table.n > 300_000 ? Math.ceil(table.n / 300_000) : 1;
+  const stride = table.n > 100_000 ? Math.ceil(table.n / 100_000) : 1;
   for (let j = 0; j < table.n; j += stride) {
     const h = table.h[j], k = table.k[j], l = table.l[j];
     let best = Infinity;
