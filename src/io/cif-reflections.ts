@@ -17,6 +17,8 @@ const T_END = 0, T_TAG = 1, T_VALUE = 2, T_DATA = 3, T_LOOP = 4, T_SAVE = 5, T_R
 const V_PLAIN = 0, V_QUOTED = 1, V_TEXT = 2, V_MISSING = 3;
 
 const utf8 = new TextDecoder();
+const POW10 = new Float64Array(23);
+for (let j = 0, p = 1; j < 23; j++, p *= 10) POW10[j] = p;
 
 function isBlank(c: number): boolean {
   return c === 32 || c === 9 || c === 10 || c === 13;
@@ -181,9 +183,25 @@ function readLoopRows(sc: ByteCifScanner, w: number, roles: Int8Array, sink: Row
       lastLine = tokLine; lastCol = pos - lineStart + 1;
       if (role !== 0 && c >= 43 && c <= 57 && !(c === 46 && (pos + 1 >= n || b[pos + 1] <= 32))) {
         // numbers: parse while scanning, one pass (+ , - . / and digits start here)
-        const x = scanByteNumber(b, pos, n);
-        pos = numberScan.end;
-        sink.numberField(role, x);
+        // inline fast path: [-]digits[.digits] then a blank
+        let j = pos, neg = false;
+        if (c === 45) { neg = true; j++; }
+        let mant = 0, digits = 0, frac = -1, d = 0;
+        while (j < n) {
+          d = b[j];
+          if (d >= 48 && d <= 57) { mant = mant * 10 + (d - 48); digits++; if (frac >= 0) frac++; j++; }
+          else if (d === 46 && frac < 0) { frac = 0; j++; }
+          else break;
+        }
+        if (digits > 0 && digits <= 15 && (j >= n || d <= 32) && c !== 43) {
+          const v = frac <= 0 ? mant : mant / POW10[frac];
+          pos = j;
+          sink.fastField(role, neg ? -v : v);
+        } else {
+          const x = scanByteNumber(b, pos, n);
+          pos = numberScan.end;
+          sink.numberField(role, x);
+        }
       } else {
         const start = pos;
         while (pos < n && b[pos] > 32) pos++;

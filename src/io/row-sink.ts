@@ -59,6 +59,11 @@ export class RowSink {
     } else this.row[role] = x;
   }
 
+  /** Store a value known to be a finite number. */
+  fastField(role: number, x: number): void {
+    this.row[role] = x;
+  }
+
   /** Mark the current row as having a missing value. */
   missingField(): void {
     if (this.status < FIELD_MISSING) this.status = FIELD_MISSING;
