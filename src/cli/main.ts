@@ -41,7 +41,10 @@ export async function runCli(argv: readonly string[], ctx: CliContext): Promise<
     const [name, ...rest] = argv;
     if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
       ctx.out(topHelp());
-      return name === undefined ? 2 : 0;
+      if (name !== undefined) return 0;
+      // no command is a usage error: exit 2 with an error: line, like every other one
+      ctx.err('error: no command given; choose one of the commands listed above\n');
+      return 2;
     }
     if (name === '--version') {
       ctx.out('lacuna 0.1.0\n');
