@@ -1,10 +1,13 @@
 /**
- * Trial structures: CIF model reader, X-ray form factors (International Tables Vol. C Table 6.1.1.4),
+ * Trial structures: CIF model reader, X-ray form factors (International Tables Vol. C Table 6.1.1.4; ions Waasmaier & Kirfel 1995),
  * structure factors, model-against-data comparison and simulated data.
  */
 export * from './crystal-model';
-export { FORM_FACTOR_S_MAX, formFactorRangeWarning, findFormFactor, formFactorAt, formFactorAtStol2, formFactorElements, parseTypeSymbol } from './form-factors';
-export type { FormFactorCoefficients, TypeSymbol } from './form-factors';
+export {
+  FORM_FACTOR_S_MAX, formFactorRangeWarning, findFormFactor, findIonFormFactor, formatTypeSymbol, formFactorAt, formFactorAtStol2,
+  formFactorElements, formFactorIons, parseTypeSymbol,
+} from './form-factors';
+export type { FormFactorCoefficients, FormFactorSource, TypeSymbol } from './form-factors';
 export { cosSinTurns } from './trig-turns';
 export * from './structure-factors';
 export { SPECIAL_POSITION_TOLERANCE, siteSymmetryOrder, closestDistinctImage, imageDistance } from './site-symmetry';

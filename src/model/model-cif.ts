@@ -3,7 +3,7 @@ import { parseCifDocument, cifValueNumber, isMissingValue, type CifBlock, type C
 import { makeCell } from '../lattice';
 import { closeGroup, findSetting, parseTriplet, type SymOp } from '../symmetry';
 import { atomSitesFromList, type AtomInput, type CrystalModel } from './crystal-model';
-import { findFormFactor, parseTypeSymbol } from './form-factors';
+import { findFormFactor, findIonFormFactor, parseTypeSymbol } from './form-factors';
 import { closestDistinctImage, siteSymmetryOrder } from './site-symmetry';
 
 /**
@@ -120,9 +120,9 @@ function readBlock(block: CifBlock, source: string): CrystalModel {
       element = found.element;
       warnings.push(`${label}: element ${element} taken from the label (no _atom_site_type_symbol)`);
     }
-    if (charge !== 0 && !ionWarned.has(typeV!.text)) {
+    if (charge !== 0 && !findIonFormFactor(element, charge) && !ionWarned.has(typeV!.text)) {
       ionWarned.add(typeV!.text);
-      warnings.push(`${typeV!.text}: no ion form factor in the table; the neutral ${element} form factor is used`);
+      warnings.push(`${typeV!.text}: no form factor for this ion in Lacuna's tables (ions: Waasmaier & Kirfel 1995); the neutral ${element} form factor (International Tables Vol. C Table 6.1.1.4) is used`);
     }
     const x = num(fx[j], `_atom_site_fract_x of ${label}`);
     const y = num(fy[j], `_atom_site_fract_y of ${label}`);

@@ -1,5 +1,5 @@
 import { MODEL_TDEN, type CrystalModel } from './crystal-model';
-import { findFormFactor, type FormFactorCoefficients } from './form-factors';
+import { findFormFactor, findIonFormFactor, type FormFactorCoefficients } from './form-factors';
 import { siteSymmetryOrder } from './site-symmetry';
 import type { UnitCell } from '../lattice';
 import { COS_TABLE, SIN_TABLE, TURN_TABLE_SIZE, TURN_TABLE_STEP } from './trig-turns';
@@ -7,7 +7,7 @@ import { COS_TABLE, SIN_TABLE, TURN_TABLE_SIZE, TURN_TABLE_STEP } from './trig-t
 /**
  * Structure factors of a trial model:
  *   F(h) = sum_atoms (occ / m) f(s) sum_ops DW_op exp(2 pi i h.(R x + t))
- * with f from International Tables Vol. C Table 6.1.1.4, m the order of the atom's site
+ * with f from International Tables Vol. C Table 6.1.1.4 (ions: Waasmaier & Kirfel 1995), m the order of the atom's site
  * symmetry (an atom on a special position is generated m times by the operations and must
  * count once), DW = exp(-8 pi^2 U s^2) for isotropic and exp(-2 pi^2 (hR) U* (hR)^T) for
  * anisotropic displacement, U*_ij = U_ij a*_i a*_j. Sign convention exp(+2 pi i h.x).
@@ -64,13 +64,14 @@ export function prepareModel(model: CrystalModel): PreparedModel {
   const as = [rc.a, rc.b, rc.c];
   for (let j = 0; j < n; j++) {
     const el = at.element[j];
-    let t = typeIndex.get(el);
+    // the ion's own form factor where a table has it, else the neutral atom's (the reader warns)
+    const coefs = findIonFormFactor(el, at.charge[j]) ?? findFormFactor(el);
+    if (!coefs) throw new Error(`no form factor for element '${el}'`);
+    let t = typeIndex.get(coefs.symbol);
     if (t === undefined) {
-      const coefs = findFormFactor(el);
-      if (!coefs) throw new Error(`no form factor for element '${el}'`);
       t = types.length;
       types.push(coefs);
-      typeIndex.set(el, t);
+      typeIndex.set(coefs.symbol, t);
     }
     typeOf[j] = t;
     siteOrder[j] = siteSymmetryOrder(model, at.x[j], at.y[j], at.z[j]);
@@ -135,7 +136,8 @@ export function computeStructureFactors(
     const s2 = 0.25 * (hh * hh * gstar[0] + kk * kk * gstar[4] + ll * ll * gstar[8] + 2 * (hh * kk * gstar[1] + hh * ll * gstar[2] + kk * ll * gstar[5]));
     for (let t = 0; t < types.length; t++) {
       const c = types[t];
-      f[t] = c.a[0] * Math.exp(-c.b[0] * s2) + c.a[1] * Math.exp(-c.b[1] * s2) + c.a[2] * Math.exp(-c.b[2] * s2) + c.a[3] * Math.exp(-c.b[3] * s2) + c.c;
+      f[t] = c.a[0] * Math.exp(-c.b[0] * s2) + c.a[1] * Math.exp(-c.b[1] * s2) + c.a[2] * Math.exp(-c.b[2] * s2) + c.a[3] * Math.exp(-c.b[3] * s2) +
+        c.a[4] * Math.exp(-c.b[4] * s2) + c.c;
     }
     let re = 0, im = 0;
     for (let a = 0; a < nAtoms; a++) {

@@ -12,7 +12,7 @@ const spec: CommandSpec = {
     MODEL_BLOCK_OPTION,
   ],
   details: `The model is a CIF 1.1 structure file: cell, symmetry operations or space-group name, atom sites
-(U_iso/B_iso or anisotropic U). Form factors: International Tables Vol. C, Table 6.1.1.4.
+(U_iso/B_iso or anisotropic U). Form factors: International Tables Vol. C, Table 6.1.1.4; ions (O2-, Fe3+) Waasmaier & Kirfel (1995).
 F(h) = sum occ f(s) DW sum_ops exp(2 pi i h.(R x + t)); atoms on special positions count once.
 Reflections: h,k,l with l > 0, or l = 0 and k > 0, or l = k = 0 and h > 0 (one hemisphere).`,
   minPositional: 1,
