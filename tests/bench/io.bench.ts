@@ -2,7 +2,7 @@
 // written to a temp folder, never committed) read into the ReflectionTable, and
 // `lacuna inspect` on it as a whole process.
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { appendFileSync, existsSync, mkdirSync, readFileSync, statSync, unlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { gzipSync } from 'node:zlib';
@@ -96,4 +96,27 @@ for (const [label, path, target] of [['', file, '< 0.5 s'], [' (gzip)', file + '
   }
   const cpuNote = Number.isFinite(childCpu[0]) ? `cpu ${median(childCpu).toFixed(2)} s` : '';
   reportBench('io', { name: `lacuna inspect 1M-row mmCIF${label}, whole process`, median: median(wall), unit: 's', runs: wall.length, target, note: cpuNote });
+}
+
+// Optional (LACUNA_BENCH_BIG=1): a file larger than the longest JavaScript string
+// (26M rows, about 585 MB), read by `lacuna inspect` as a whole process.
+if (process.env.LACUNA_BENCH_BIG === '1') {
+  const big = join(dir, 'refl-big.cif');
+  const start = bytes.indexOf(10, findTag(bytes)) + 1;
+  const body = bytes.subarray(start);
+  writeFileSync(big, bytes.subarray(0, start));
+  for (let j = 0; j < 26; j++) appendFileSync(big, body);
+  const c0 = childrenCpuSeconds();
+  const t0 = performance.now();
+  const r = spawnSync(process.execPath, [bin, 'inspect', big, '--json'], { encoding: 'utf8', maxBuffer: 1 << 20 });
+  const dt = (performance.now() - t0) / 1000;
+  if (r.status !== 0) throw new Error(`lacuna inspect on the big file failed: ${r.stderr}`);
+  const rows = JSON.parse(r.stdout).reflections as number;
+  if (rows !== 26 * ROWS) throw new Error(`big file: ${rows} reflections, expected ${26 * ROWS}`);
+  reportBench('io', { name: `lacuna inspect ${(statSync(big).size / 1e6).toFixed(0)} MB mmCIF (26M rows)`, median: dt, unit: 's', runs: 1, note: `cpu ${(childrenCpuSeconds() - c0).toFixed(1)} s` });
+  unlinkSync(big);
+}
+/** Offset of the last loop tag line of the generated file. */
+function findTag(b: Uint8Array): number {
+  return Buffer.from(b.buffer, b.byteOffset, b.byteLength).indexOf('_refln.intensity_sigma');
 }
