@@ -385,6 +385,8 @@ async function start(): Promise<void> {
   const choice = chooseRenderer(params.get('renderer'));
   const app = new App(await createPointRenderer(choice.kind), choice);
   (window as unknown as { lacuna: App }).lacuna = app;
+  // Inputs are wired from here on (tests wait for this before choosing files).
+  document.body.dataset.app = 'ready';
   const synthetic = params.get('synthetic');
   const data = params.get('data');
   const bench = Number(params.get('bench') ?? 0);

@@ -72,6 +72,7 @@ try {
   for (let j = 0; j < RUNS; j++) {
     const page = await context.newPage();
     await page.goto(`${base}?renderer=auto&data=none.cif`);
+    await page.waitForSelector('body[data-app="ready"]', { state: 'attached' });
     await page.waitForSelector('#message:not([hidden])');
     await page.locator('#file-input').setInputFiles(file);
     await page.waitForFunction(() => document.body.dataset.firstPictureMs, null, { timeout: 120_000 });

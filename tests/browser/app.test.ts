@@ -40,6 +40,8 @@ maybe('the web app in Chromium', () => {
     const page = await browser.context.newPage();
     page.on('pageerror', (e) => pageErrors.push(e.message));
     await page.goto(`${server.url.replace('localhost', '127.0.0.1')}${query}`);
+    // The app starts after its renderer module has loaded; files chosen before that would go unheard.
+    await page.waitForSelector('body[data-app="ready"]', { state: 'attached', timeout: 60_000 });
     return page;
   }
 
