@@ -118,7 +118,9 @@ export class LayerPanel {
     if (best < 0) { this.readout.textContent = ''; return; }
     const row = r.spotRow[best], t = ds.table;
     const forbidden = this.state.rules.length > 0 && anyRuleForbids(this.state.rules, t.h[row], t.k[row], t.l[row]);
-    this.readout.textContent = `${t.h[row]} ${t.k[row]} ${t.l[row]}   I ${fmt(t.i[row], 1)}   \u03c3 ${fmt(t.sigma[row], 1)}   I/\u03c3 ${fmt(ds.iOverSigma[row], 1)}   d ${fmt(1 / ds.dstar[row], 3)} \u00c5${forbidden ? '   forbidden by the selection' : ''}`;
+    // Calculated intensities are row for row with the data (unscaled |F|^2).
+    const calc = this.state.calc && this.state.calc.n === t.n ? `   I calc ${fmt(this.state.calc.i[row], 1)} (unscaled)` : '';
+    this.readout.textContent = `${t.h[row]} ${t.k[row]} ${t.l[row]}   I ${fmt(t.i[row], 1)}   \u03c3 ${fmt(t.sigma[row], 1)}   I/\u03c3 ${fmt(ds.iOverSigma[row], 1)}   d ${fmt(1 / ds.dstar[row], 3)} \u00c5${calc}${forbidden ? '   forbidden by the selection' : ''}`;
   }
 
   request(): void {

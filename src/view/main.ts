@@ -345,6 +345,7 @@ class App {
       el('span', { text: `\u03c3 ${fmt(t.sigma[row], 1)}` }),
       el('span', { text: `I/\u03c3 ${fmt(ds.iOverSigma[row], 1)}` }),
     );
+    if (this.calc) info.append(el('span', { text: `I calc ${fmt(this.calc.i[row], 1)} (unscaled, ${this.calc.name})` }));
     const tested = (this.analysis?.conditions ?? []).filter((c) => inZone(c, h, k, l) && c.zone.length + (c.coeffs.some((x) => x !== 0) ? 1 : 0) > 0);
     const lines = tested.filter((c) => ruleForbids(c, h, k, l)).map((c) => c.text);
     const allowed = tested.filter((c) => !ruleForbids(c, h, k, l)).map((c) => c.text);

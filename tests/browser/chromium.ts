@@ -29,5 +29,7 @@ export async function launchChromium(viewport = { width: 1366, height: 768 }): P
   const context = await chromium.launchPersistentContext(dir, {
     executablePath: CHROMIUM, headless: true, args: CHROMIUM_FLAGS, viewport, deviceScaleFactor: 1,
   });
+  // A loaded 2-core CI machine runs other tests beside these: give waits room.
+  context.setDefaultTimeout(60_000);
   return { context, close: async () => { await context.close(); rmSync(dir, { recursive: true, force: true }); } };
 }
