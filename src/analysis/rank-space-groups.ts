@@ -434,13 +434,34 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   });
   progress(0.5, 'absences');
 
-  // --- absences, pass 2 with the final sigma scale and normalisation
-  abs = absenceEvidence(table, expected, condList, model);
+  // --- absences, pass 2 with the final sigma scale and normalisation. A reflection on a
+  // symmetry axis or plane is expected epsilon times stronger if present (Wilson 1949); epsilon
+  // is counted over the proper rotations of the Laue class the symmetry evidence favours.
+  let bestLaue = '';
+  let bestLl = -Infinity;
+  for (const [key, e] of laueClasses) if (e.ll - Math.log(e.members.length) > bestLl) { bestLl = e.ll - Math.log(e.members.length); bestLaue = key; }
+  const bestRot = bestLaue ? bestLaue.split(';').map((t) => t.split(',').map(Number)) : [];
+  const withEpsilon = () => {
+    const out = new Float64Array(n);
+    for (let j = 0; j < n; j++) {
+      let eps = 1;
+      if (!general[j]) {
+        eps = 0;
+        const h = table.h[j], kk = table.k[j], l = table.l[j];
+        for (const r of bestRot)
+          if (h * r[0] + kk * r[3] + l * r[6] === h && h * r[1] + kk * r[4] + l * r[7] === kk && h * r[2] + kk * r[5] + l * r[8] === l) eps++;
+        eps = Math.max(1, eps);
+      }
+      out[j] = expected[j] * eps;
+    }
+    return out;
+  };
+  abs = absenceEvidence(table, withEpsilon(), condList, model);
   if (excludeClear()) {
     shells = buildShells(table, stol2, use);
     expected = expectedIntensityColumn(shells, stol2, n);
     normalise();
-    abs = absenceEvidence(table, expected, condList, model);
+    abs = absenceEvidence(table, withEpsilon(), condList, model);
   }
   progress(0.7, 'statistics');
 
