@@ -151,6 +151,7 @@ export class LayerPanel {
     this.ctx.putImageData(new ImageData(r.image.data as Uint8ClampedArray<ArrayBuffer>, r.image.width, r.image.height), 0, 0);
     this.canvas.dataset.spots = String(r.spotCount);
     this.canvas.dataset.layer = this.plane.name;
+    this.canvas.dataset.calc = this.state.calc ? 'yes' : 'no';
     let onThis = 0;
     for (let j = 0; j < ds.table.n; j++) if (onLayer(this.plane, ds.table.h[j], ds.table.k[j], ds.table.l[j])) onThis++;
     this.status.textContent = `${onThis.toLocaleString('en')} reflections on this layer`;

@@ -207,6 +207,14 @@ maybe('the web app in Chromium', () => {
     await page.close();
   });
 
+  it('draws a trial model\'s intensities beside the measured ones', async () => {
+    const page = await open('?renderer=cpu&data=demo/qm-101.cif&model=demo/models/qm-101.cif');
+    await page.waitForSelector('body[data-model="qm-101.cif"]');
+    await page.waitForFunction(() => document.getElementById('layer-canvas')?.dataset.calc === 'yes');
+    expect(await page.locator('#open-model').textContent()).toContain('qm-101.cif');
+    await page.close();
+  });
+
   it('raised no uncaught page errors', () => {
     expect(pageErrors).toEqual([]);
   });

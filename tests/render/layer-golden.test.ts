@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { deflateSync, inflateSync } from 'node:zlib';
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { decodePng, drawLayerMap, encodePng, parseLayerPlane, type LayerPlane } from '../../shaders-free-render';
+import { decodePng, drawLayerMap, encodePng, MARK, parseLayerPlane, type LayerPlane } from '../../shaders-free-render';
 import { syntheticMonoclinic } from './synthetic-layer';
 
 /**
@@ -50,6 +50,18 @@ describe('layer map golden picture', () => {
     expect(r.spotCount).toBe(onLayerCount);
     expect(r.violations).toBe(1); // 1 0 3 was made strong on purpose; the other l-odd h0l are weak
     expect(r.forbiddenMarked).toBeGreaterThan(0);
+  });
+
+  it('draws calculated intensities as the right half of each spot', () => {
+    const { table, recip } = syntheticMonoclinic();
+    const plane = parseLayerPlane('h0l') as LayerPlane;
+    const r = drawLayerMap({ width: 320, height: 320, plane, recip, data: table, calc: table, legend: false });
+    // The strongest spot of the layer: left of its centre the intensity palette, right of it the model colour.
+    let best = -1;
+    for (let j = 0; j < r.spotCount; j++) if (best < 0 || table.i[r.spotRow[j]] > table.i[r.spotRow[best]]) best = j;
+    const x = Math.round(r.spotX[best]), y = Math.floor(r.spotY[best]);
+    expect(r.image.pixels[y * 320 + x + 3]).toBe(MARK.calc);
+    expect(r.image.pixels[y * 320 + x - 4]).not.toBe(MARK.calc);
   });
 
   it('round-trips a PNG through our writer and reader', () => {
