@@ -17,7 +17,7 @@ export class InputError extends Error {
   /** What the user can do about it (optional, one sentence). */
   readonly hint?: string;
   constructor(message: string, location: InputLocation = {}, hint?: string) {
-    super(message);
+    super(clipMessage(message));
     this.name = 'InputError';
     this.location = location;
     this.hint = hint;
@@ -32,6 +32,33 @@ export class InputError extends Error {
     const text = where ? `${where}: ${this.message}` : this.message;
     return this.hint ? `${text}. ${this.hint}` : text;
   }
+}
+
+/** Longest run of non-blank characters a message repeats from the file, and longest message. */
+const MAX_WORD = 80;
+const MAX_MESSAGE = 600;
+
+/**
+ * Messages quote the user's text (a token, a header, block names); a damaged file
+ * can make that text megabytes long. Long words keep their start and say how long
+ * they were, and a long message keeps its start and end, so an error stays one
+ * readable line.
+ */
+export function clipMessage(message: string): string {
+  // a plain scan: a regular expression over a megabyte-long word can exhaust the stack
+  const blank = (c: number) => c === 32 || c === 9 || c === 10 || c === 13;
+  let m = '';
+  for (let j = 0, n = message.length; j < n;) {
+    let k = j;
+    while (k < n && !blank(message.charCodeAt(k))) k++;
+    m += k - j > MAX_WORD ? `${message.slice(j, j + MAX_WORD - 20)}...(${k - j} characters)` : message.slice(j, k);
+    j = k;
+    while (k < n && blank(message.charCodeAt(k))) k++;
+    m += message.slice(j, k);
+    j = k;
+  }
+  if (m.length > MAX_MESSAGE) m = `${m.slice(0, MAX_MESSAGE - 100)} ... ${m.slice(-80)}`;
+  return m;
 }
 
 export function isInputError(e: unknown): e is InputError {
