@@ -212,7 +212,7 @@ function readLoopRows(sc: ByteCifScanner, w: number, roles: Int8Array, sink: Row
     if (++col === w) {
       sink.endRow(rowLine);
       col = 0;
-      if (badLine === 0 && (lastLine !== rowLine || rowLine === prevEnd)) badLine = rowsDone > 0 ? rowLine : -1;
+      if (badLine === 0 && (lastLine !== rowLine || rowLine === prevEnd)) badLine = rowsDone > 1 ? rowLine : -1; // two rows set the layout
       prevEnd = lastLine;
       rowsDone++;
     }
@@ -346,7 +346,7 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
   }
 
   if (!chosen || !sink) {
-    const names = blocks.map((x) => x.name).join(', ') || 'none';
+    const names = blocks.slice(0, 10).map((x) => x.name).join(', ') + (blocks.length > 10 ? `, ... (${blocks.length} blocks)` : '') || 'none';
     if (wantBlock !== undefined) {
       const named = blocks.find((x) => x.name.toLowerCase() === wantBlock);
       if (!named) return fail(`no data block named '${opts.block}' (blocks in the file: ${names})`, { file });
@@ -361,7 +361,7 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
   meta.rowsInFile = sink.rows;
   const others = blocks.filter((x) => x !== chosen && x.reflectionLoops > 0);
   if (others.length)
-    meta.warnings.push(`the file has ${others.length} more data block(s) with reflections (${others.map((x) => x.name).join(', ')}); read '${chosen.name}'. Use --block NAME to choose another`);
+    meta.warnings.push(`the file has ${others.length} more data block(s) with reflections (${others.slice(0, 10).map((x) => x.name).join(', ')}${others.length > 10 ? ', ...' : ''}); read '${chosen.name}'. Use --block NAME to choose another`);
   if (chosen.reflectionLoops > 1) meta.warnings.push(`data block '${chosen.name}' has ${chosen.reflectionLoops} reflection loops; read the first`);
   if (meta.origin === 'amplitude')
     meta.warnings.push(AMPLITUDE_WARNING);
