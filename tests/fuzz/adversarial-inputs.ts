@@ -35,8 +35,8 @@ export function makeAdversarial(name: AdversarialName): Uint8Array {
     case 'repeated-quotes': return repeat('data_adv\n_exptl_crystal_description ', "'");
     case 'quote-pairs': return repeat('data_adv\n_exptl_crystal_description ', "'a");  // never closed by quote + blank
     case 'quoted-loop': return repeat(LOOP_HEAD, "'1' '2' '3' '45.5' \"1.5\"\n");
-    case 'empty-values-cif': return repeat(LOOP_HEAD, '? ', '\n');                    // 5 million missing values
-    case 'dots-cif': return repeat(LOOP_HEAD, '.\n');
+    case 'empty-values-cif': return repeat(LOOP_HEAD, '? ? ? ? ? ', '\n');            // 5 million missing values on one line
+    case 'dots-cif': return repeat(LOOP_HEAD, '.\n.\n.\n.\n.\n');                       // one missing value per line
     case 'empty-values-csv': return repeat('h,k,l,I,sigI\n', ',,,,\n');
     case 'unclosed-text-field': return repeat('data_adv\n_exptl_special_details\n;\n', 'text line\n');
     case 'many-blocks': return repeat('', 'data_b\n');

@@ -77,7 +77,8 @@ async function cli(argv: string[], files: Record<string, Uint8Array>): Promise<F
     let out = '', err = '';
     const code = await runCli(argv, { out: (t) => { out += t; }, err: (t) => { err += t; }, interactive: false, cwd: dir });
     const problems: string[] = [];
-    const json = argv.includes('--json');
+    // help and version text win over --json (what a user asking for help expects)
+    const json = argv.includes('--json') && !argv.some((a) => a === '--help' || a === '-h') && !['help', '--version'].includes(argv[0]);
     if (code === 1) problems.push(`internal fault (exit 1): ${err.slice(0, 2000)}`);
     else if (code === 2) {
       if (!/^error: \S/.test(err)) problems.push(`exit 2 without an error: line: ${JSON.stringify(err.slice(0, 300))}`);

@@ -47,7 +47,7 @@ const dec = new TextDecoder('latin1');
 
 /** Apply the mutations to the seed text; returns bytes (random bytes need not be UTF-8). */
 export function applyMutations(seed: string, muts: readonly Mutation[]): Uint8Array {
-  let bytes = enc.encode(seed);
+  let bytes: Uint8Array = enc.encode(seed);
   for (const m of muts) {
     if (m.t === 'insBytes' || m.t === 'setByte' || m.t === 'cut' || m.t === 'bom') {
       const at = bytes.length ? ('at' in m ? m.at % (bytes.length + 1) : 0) : 0;
