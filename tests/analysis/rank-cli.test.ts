@@ -1,0 +1,108 @@
+import { describe, expect, it } from 'vitest';
+import { writeFileSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { runCli } from '../../src/cli';
+import { rankSpaceGroups } from '../../src/analysis';
+import { findSetting } from '../../src/symmetry';
+import { atomSitesFromList, simulateData } from '../../src/model';
+import { realdata } from '../helpers/paths';
+import { randomCellFor } from './rank-simulation';
+import { SeededRandom } from '../../src/model';
+
+function capture() {
+  let out = '';
+  let err = '';
+  return {
+    ctx: { out: (t: string) => { out += t; }, err: (t: string) => { err += t; }, interactive: false, cwd: process.cwd() },
+    get out() { return out; },
+    get err() { return err; },
+  };
+}
+
+describe('lacuna rank (command contract, conventions.md section 1)', () => {
+  it('--json prints one document with the contract keys, candidates highest first', async () => {
+    const c = capture();
+    expect(await runCli(['rank', realdata('cod-1560875.cif'), '--json'], c.ctx)).toBe(0);
+    const j = JSON.parse(c.out);
+    for (const k of ['input', 'cell', 'laue', 'statistics', 'conditions', 'candidates']) expect(j).toHaveProperty(k);
+    for (const cond of j.conditions)
+      for (const k of ['text', 'zone', 'coeffs', 'modulus', 'n', 'mean_i_over_sigma', 'n_strong', 'probability_absent']) expect(cond).toHaveProperty(k);
+    const p = j.candidates.map((x: { probability: number }) => x.probability);
+    for (let q = 1; q < p.length; q++) expect(p[q]).toBeLessThanOrEqual(p[q - 1]);
+    for (const k of ['number', 'hm', 'hall', 'probability']) expect(j.candidates[0]).toHaveProperty(k);
+    expect(Math.abs(p.reduce((a: number, b: number) => a + b, 0) - 1)).toBeLessThan(0.01);
+  });
+  it('text output shows N candidates, the condition table and the caution', async () => {
+    const c = capture();
+    expect(await runCli(['rank', realdata('cod-1560875.cif'), '--top', '3'], c.ctx)).toBe(0);
+    expect(c.out).toMatch(/^\s+3\s+P /m);
+    expect(c.out).not.toMatch(/^\s+4\s+P /m);
+    expect(c.out).toMatch(/Reflection conditions/);
+    expect(c.out).toMatch(/Caution: .*hypothesis/);
+  });
+  it('--chiral keeps Sohncke groups only', async () => {
+    const c = capture();
+    expect(await runCli(['rank', realdata('cod-2014121.cif'), '--json', '--chiral'], c.ctx)).toBe(0);
+    const j = JSON.parse(c.out);
+    expect(j.candidates.length).toBeGreaterThan(0);
+    for (const x of j.candidates) expect(x.sohncke).toBe(true);
+  });
+  it('bad usage and bad input exit 2 with an error: line', async () => {
+    const c = capture();
+    expect(await runCli(['rank', realdata('cod-1560875.cif'), '--top', '0'], c.ctx)).toBe(2);
+    expect(c.err).toMatch(/^error: /);
+    const dir = mkdtempSync(join(tmpdir(), 'lacuna-rank-'));
+    const f = join(dir, 'nocell.txt');
+    const rows = ['h k l i sigi'];
+    for (let h = 1; h <= 5; h++) for (let k = 0; k < 6; k++) rows.push(`${h} ${k} 1 ${100 + h * k} 5`);
+    writeFileSync(f, rows.join('\n') + '\n');
+    const d = capture();
+    expect(await runCli(['rank', f], d.ctx)).toBe(2);
+    expect(d.err).toMatch(/^error: .*no unit cell.*--cell/s);
+  });
+});
+
+describe('rankSpaceGroups on harder input', () => {
+  function simulated(name: string, opts: { unmerged?: boolean }) {
+    const s = findSetting(name)!;
+    const rng = new SeededRandom(11);
+    const cell = randomCellFor(s, rng, 1600);
+    const atoms = Array.from({ length: 6 }, (_, j) => ({ label: `C${j}`, element: 'C', x: rng.uniform(), y: rng.uniform(), z: rng.uniform(), uiso: 0.03 }));
+    const r = simulateData({ source: 'test', cell, ops: s.ops, atoms: atomSitesFromList(atoms), warnings: [] },
+      { dmin: 0.9, seed: 3, unmerged: opts.unmerged, multiplicity: 3, incompleteness: 0.05 });
+    if (!r.ok) throw r.error;
+    return r.value.table;
+  }
+  it('unmerged data are merged first, with R_int reported, and still ranked right (P 1 21/c 1)', () => {
+    const r = rankSpaceGroups(simulated('P 1 21/c 1', { unmerged: true }));
+    if (!r.ok) throw r.error;
+    expect(r.value.input.merged_from_unmerged).toBe(true);
+    expect(r.value.input.r_int).not.toBeNull();
+    expect(r.value.warnings.join(' ')).toMatch(/unmerged input/);
+    expect(r.value.classes[0].members).toContain('P 1 21/c 1');
+  });
+  it('missing sigmas are estimated with a warning, and the ranking still runs', () => {
+    const t = simulated('P 21 21 21', {});
+    const r = rankSpaceGroups({ ...t, sigma: new Float32Array(t.n) });
+    if (!r.ok) throw r.error;
+    expect(r.value.input.sigmas_estimated).toBe(true);
+    expect(r.value.warnings.join(' ')).toMatch(/no standard uncertainties/);
+    expect(r.value.candidates.length).toBeGreaterThan(1);
+  });
+  it('all-zero intensities and too few reflections are errors, not empty lists', () => {
+    const t = simulated('P 21 21 21', {});
+    const z = rankSpaceGroups({ ...t, i: new Float32Array(t.n) });
+    expect(z.ok).toBe(false);
+    if (!z.ok) expect(z.error.message).toMatch(/every intensity is zero/);
+    const few = rankSpaceGroups({ ...t, n: 5 });
+    expect(few.ok).toBe(false);
+  });
+  it('progress is reported and can cancel', () => {
+    const t = simulated('P 21 21 21', {});
+    const seen: number[] = [];
+    const r = rankSpaceGroups(t, {}, (f) => { seen.push(f); return f < 0.5; });
+    expect(r.ok).toBe(false);
+    expect(seen.length).toBeGreaterThan(1);
+  });
+});
