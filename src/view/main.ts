@@ -187,6 +187,8 @@ class App {
   progress(label: string, fraction: number): void {
     const p = byId('progress');
     p.hidden = false;
+    // Stages without a measurable fraction (parsing) show a moving bar instead of a frozen one.
+    p.classList.toggle('busy', fraction <= 0);
     (p.querySelector('.fill') as HTMLElement).style.width = `${Math.round(Math.max(0.03, fraction) * 100)}%`;
     p.querySelector('.label')!.textContent = label;
   }

@@ -207,6 +207,22 @@ maybe('the web app in Chromium', () => {
     await page.close();
   });
 
+  it('runs the demo without a single Content-Security-Policy violation', async () => {
+    const page = await browser.context.newPage();
+    await page.addInitScript(() => {
+      const w = window as unknown as { __csp: string[] };
+      w.__csp = [];
+      document.addEventListener('securitypolicyviolation', (e) => w.__csp.push(`${e.violatedDirective} ${e.blockedURI}`));
+    });
+    await page.goto(server.url.replace('localhost', '127.0.0.1'));
+    await page.waitForSelector('body[data-state="ready"]');
+    await page.keyboard.press('2');
+    await page.locator('li.candidate').first().click();
+    await page.waitForTimeout(300);
+    expect(await page.evaluate(() => (window as unknown as { __csp: string[] }).__csp)).toEqual([]);
+    await page.close();
+  });
+
   it('draws a trial model\'s intensities beside the measured ones', async () => {
     const page = await open('?renderer=cpu&data=demo/qm-101.cif&model=demo/models/qm-101.cif');
     await page.waitForSelector('body[data-model="qm-101.cif"]');
