@@ -1,5 +1,6 @@
 import type { ReflectionTable } from '../core';
 import type { HklIndex } from './hkl-index';
+import { invertOp, isIdentityRotation, makeOp, rotationOrder } from '../symmetry';
 import { clamp, logNormalCdf, logNormalPdf } from './special-functions';
 
 /** A proper rotation acting on Miller indices as h' = h R (R row-major, integer). */
@@ -28,40 +29,13 @@ export interface RotationAgreement {
   readonly logOdds: number;
 }
 
-function mulRot(a: ArrayLike<number>, b: ArrayLike<number>): number[] {
-  const c = new Array<number>(9).fill(0);
-  for (let i = 0; i < 3; i++)
-    for (let j = 0; j < 3; j++) {
-      let v = 0;
-      for (let k = 0; k < 3; k++) v += a[i * 3 + k] * b[k * 3 + j];
-      c[i * 3 + j] = v;
-    }
-  return c;
-}
-
-function isIdentity(r: ArrayLike<number>): boolean {
-  return r[0] === 1 && r[4] === 1 && r[8] === 1 && r[1] === 0 && r[2] === 0 && r[3] === 0 && r[5] === 0 && r[6] === 0 && r[7] === 0;
-}
-
-export function rotationOrderOf(r: ArrayLike<number>): number {
-  let m = Array.from(r);
-  for (let n = 1; n <= 6; n++) {
-    if (isIdentity(m)) return n;
-    m = mulRot(m, r);
-  }
-  return 0;
-}
-
 export function inverseRotation(r: ArrayLike<number>): number[] {
-  const n = rotationOrderOf(r);
-  let m = Array.from(r);
-  for (let j = 1; j < n - 1; j++) m = mulRot(m, r);
-  return n === 1 ? Array.from(r) : m;
+  return Array.from(invertOp(makeOp(r)).r);
 }
 
 /** Direction of the rotation axis in direct space (the fixed vector of R acting on columns). */
 function axisLabel(r: ArrayLike<number>): string {
-  const n = rotationOrderOf(r);
+  const n = rotationOrder(r);
   // The axis is the null space of (R - I); try small integer vectors.
   let best = '';
   outer: for (let s = 1; s <= 2; s++)
@@ -86,7 +60,7 @@ export function distinctRotations(rotations: readonly ArrayLike<number>[]): numb
   const seen = new Set<string>();
   const out: number[][] = [];
   for (const r of rotations) {
-    if (isIdentity(r)) continue;
+    if (isIdentityRotation(r)) continue;
     const k = rotationKeyText(r), ki = rotationKeyText(inverseRotation(r));
     if (seen.has(k) || seen.has(ki)) continue;
     seen.add(k);
@@ -112,7 +86,7 @@ export function rotationAgreements(
   const n = table.n;
   const stride = Math.max(1, Math.floor(n / 200_000));
   return rotations.map((r) => {
-    const involution = isIdentity(mulRot(r, r));
+    const involution = rotationOrder(r) === 2;
     let pairs = 0, distinct = 0;
     let sx = 0, sy = 0, sxx = 0, syy = 0, sxy = 0, sNoise = 0;
     for (let j = 0; j < n; j += stride) {
