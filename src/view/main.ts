@@ -42,6 +42,8 @@ const params = new URLSearchParams(location.search);
 interface Settings {
   colour: ColourMode;
   dMin: number;
+  /** -5 stands for "show all". */
+  minIOverSigma: number;
   spotScale: number;
 }
 
@@ -50,7 +52,7 @@ class App {
   analysis: AnalysisView | undefined;
   candidate = -1;
   condition = -1;
-  settings: Settings = { colour: 'intensity', dMin: 0, spotScale: 1 };
+  settings: Settings = { colour: 'intensity', dMin: 0, minIOverSigma: -5, spotScale: 1 };
   lattice: LatticeView;
   layer: LayerPanel;
   loader: DataLoader;
@@ -94,6 +96,7 @@ class App {
     const gui = new GUI({ container: byId('settings-slot'), title: 'Settings', injectStyles: false, closeFolders: true });
     gui.add(this.settings, 'colour', { 'intensity I': 'intensity', 'I/sigma': 'isigma' }).name('colour by').onChange(() => this.restyle());
     this.dMinController = gui.add(this.settings, 'dMin', 0, 5, 0.01).name('hide d below (\u00c5)').onFinishChange(() => this.restyle());
+    gui.add(this.settings, 'minIOverSigma', -5, 30, 0.5).name('3D: hide I/\u03c3 below (-5 = all)').onFinishChange(() => this.restyle());
     gui.add(this.settings, 'spotScale', 0.5, 3, 0.25).name('spot size').onChange(() => this.restyle());
     gui.add({ renderer: this.lattice.kind }, 'renderer', ['cpu', 'webgl', 'auto']).name('renderer (reloads)').onChange((v: string) => {
       const p = new URLSearchParams(location.search);
@@ -293,7 +296,8 @@ class App {
     const ds = this.ds;
     if (!ds) return;
     const act = this.activeRules();
-    const { cloud } = buildCloud(ds, { colour: this.settings.colour, rules: act.rules, zone: act.zone, dMin: this.settings.dMin }, this.cloud);
+    const minIos = this.settings.minIOverSigma > -5 ? this.settings.minIOverSigma : undefined;
+    const { cloud } = buildCloud(ds, { colour: this.settings.colour, rules: act.rules, zone: act.zone, dMin: this.settings.dMin, minIOverSigma: minIos }, this.cloud);
     this.cloud = cloud;
     this.lattice.setCloud(cloud, this.settings.spotScale);
     this.layer.setState({ rules: act.rules, ruleText: act.label || undefined, dMin: this.settings.dMin, calc: this.calc });

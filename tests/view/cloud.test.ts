@@ -48,6 +48,16 @@ describe('the 3D point cloud', () => {
     expect(buildCloud(ds, { colour: 'isigma', rules: [], dMin: 0 }).cloud.hidden).toBeUndefined();
   });
 
+  it('hides weak allowed reflections on request but never the forbidden ones', () => {
+    const s = getSetting('P 1 21/c 1');
+    const { cloud } = buildCloud(ds, { colour: 'intensity', rules: s.conditions, dMin: 0, minIOverSigma: 5 });
+    for (let r = 0; r < table.n; r++) {
+      const absent = isSystematicallyAbsent(s, table.h[r], table.k[r], table.l[r]);
+      const io = table.i[r] / table.sigma[r];
+      expect(cloud.hidden![r], `${table.h[r]} ${table.k[r]} ${table.l[r]}`).toBe(!absent && !(io >= 5) ? 1 : 0);
+    }
+  });
+
   it('copes with one reflection, zero sigma and NaN intensity', () => {
     const t = tableFromArrays({ h: [1, 2], k: [0, 0], l: [0, 1], i: [NaN, 5], sigma: [0, 0] }, { source: 'tiny', cell: { a: 5, b: 5, c: 5, alpha: 90, beta: 90, gamma: 90 } });
     const d = makeDataset(t, 'tiny');

@@ -15,6 +15,8 @@ export interface CloudStyle {
   zone?: Rule;
   /** Resolution filter: reflections with d below this (angstrom) are hidden. 0 = none. */
   dMin: number;
+  /** Hide allowed reflections weaker than this I/sigma (forbidden ones stay: they are the evidence). Undefined = none. */
+  minIOverSigma?: number;
 }
 
 export interface CloudStats {
@@ -88,7 +90,8 @@ export function buildCloud(ds: Dataset, style: CloudStyle, reuse?: PointCloud): 
     cloud.color[r] = col;
     cloud.radius[r] = rad;
     cloud.shape[r] = shape;
-    const hide = ds.dstar[r] > qLimit ? 1 : 0;
+    const weak = style.minIOverSigma !== undefined && shape === SHAPE_DISC && !(ios[r] >= style.minIOverSigma);
+    const hide = ds.dstar[r] > qLimit || weak ? 1 : 0;
     mask[r] = hide;
     hidden += hide;
   }
