@@ -41,21 +41,6 @@ export function logNormalPdf(x: number, s: number): number {
   return -0.5 * u * u - Math.log(s) - LOG_SQRT_2PI;
 }
 
-/** log(exp(a) + exp(b)) without overflow. */
-export function logAddExp(a: number, b: number): number {
-  if (a === -Infinity) return b;
-  if (b === -Infinity) return a;
-  return a > b ? a + Math.log1p(Math.exp(b - a)) : b + Math.log1p(Math.exp(a - b));
-}
-
-/** Median of a copy of the first n values (does not reorder the input). */
-export function median(values: ArrayLike<number>, n = values.length): number {
-  if (n === 0) return NaN;
-  const c = Float64Array.from({ length: n }, (_, j) => values[j]);
-  c.sort();
-  return n % 2 ? c[(n - 1) >> 1] : 0.5 * (c[n / 2 - 1] + c[n / 2]);
-}
-
 /** Turn log weights into probabilities that sum to one. */
 export function softmax(logw: readonly number[]): number[] {
   const m = Math.max(...logw);
