@@ -2,6 +2,7 @@
 import { isGzip, readReflections } from '../io';
 import { calculatedIntensitiesOf, parseModelCif, prepareModel } from '../model';
 import { runAnalysis } from './analysis-bridge';
+import { fileTooLargeMessage } from './size-limit';
 import type { FromWorker, ToWorker } from './worker-protocol';
 
 /**
@@ -16,17 +17,12 @@ function post(msg: FromWorker, transfer: Transferable[] = []): void {
   scope.postMessage(msg, transfer);
 }
 
-async function gunzip(bytes: Uint8Array): Promise<Uint8Array> {
-  const stream = new Blob([bytes as BlobPart]).stream().pipeThrough(new DecompressionStream('gzip'));
-  return new Uint8Array(await new Response(stream).arrayBuffer());
-}
+/** Thrown when a file turns out larger than the page can hold (see size-limit.ts). */
+class TooLarge extends Error {}
 
-async function fetchBytes(id: number, url: string): Promise<Uint8Array> {
-  const res = await fetch(url, { credentials: 'same-origin' });
-  if (!res.ok) throw new Error(`could not fetch ${url}: the server answered ${res.status} ${res.statusText}`);
-  const total = Number(res.headers.get('content-length') ?? 0);
-  if (!res.body) return new Uint8Array(await res.arrayBuffer());
-  const reader = res.body.getReader();
+/** Gather a stream's chunks, stopping as soon as they pass the page's limit. */
+async function collect(stream: ReadableStream<Uint8Array>, name: string, unpacked: boolean, onChunk?: (got: number) => void): Promise<Uint8Array> {
+  const reader = stream.getReader();
   const parts: Uint8Array[] = [];
   let got = 0;
   for (;;) {
@@ -34,7 +30,9 @@ async function fetchBytes(id: number, url: string): Promise<Uint8Array> {
     if (done) break;
     parts.push(value);
     got += value.length;
-    if (total > 0) post({ type: 'progress', id, stage: 'reading', fraction: Math.min(1, got / total) });
+    const tooLarge = fileTooLargeMessage(name, got, unpacked);
+    if (tooLarge) { void reader.cancel(); throw new TooLarge(tooLarge); }
+    onChunk?.(got);
   }
   const out = new Uint8Array(got);
   let o = 0;
@@ -42,9 +40,27 @@ async function fetchBytes(id: number, url: string): Promise<Uint8Array> {
   return out;
 }
 
+async function gunzip(bytes: Uint8Array, name: string): Promise<Uint8Array> {
+  const stream = new Blob([bytes as BlobPart]).stream().pipeThrough(new DecompressionStream('gzip'));
+  return collect(stream, name, true);
+}
+
+async function fetchBytes(id: number, url: string): Promise<Uint8Array> {
+  const res = await fetch(url, { credentials: 'same-origin' });
+  if (!res.ok) throw new Error(`could not fetch ${url}: the server answered ${res.status} ${res.statusText}`);
+  const total = Number(res.headers.get('content-length') ?? 0);
+  const name = url.split('/').pop() || url;
+  const tooLarge = fileTooLargeMessage(name, total);
+  if (tooLarge) { void res.body?.cancel(); throw new TooLarge(tooLarge); }
+  if (!res.body) return new Uint8Array(await res.arrayBuffer());
+  return collect(res.body, name, false, (got) => {
+    if (total > 0) post({ type: 'progress', id, stage: 'reading', fraction: Math.min(1, got / total) });
+  });
+}
+
 async function bytesOf(id: number, msg: { url?: string; bytes?: ArrayBuffer }): Promise<Uint8Array> {
   let bytes = msg.url !== undefined ? await fetchBytes(id, msg.url) : new Uint8Array(msg.bytes!);
-  if (isGzip(bytes)) bytes = await gunzip(bytes);
+  if (isGzip(bytes)) bytes = await gunzip(bytes, msg.url?.split('/').pop() || 'the model');
   return bytes;
 }
 
@@ -79,8 +95,9 @@ scope.onmessage = async (e: MessageEvent<ToWorker>) => {
     if (isGzip(bytes)) {
       post({ type: 'progress', id, stage: 'unpacking', fraction: 0 });
       try {
-        bytes = await gunzip(bytes);
+        bytes = await gunzip(bytes, name);
       } catch (err) {
+        if (err instanceof TooLarge) { post({ type: 'error', id, message: err.message }); return; }
         post({ type: 'error', id, message: `${name}: the file looks gzip-compressed but does not unpack (${err instanceof Error ? err.message : String(err)}); it may be truncated` });
         return;
       }
@@ -101,6 +118,7 @@ scope.onmessage = async (e: MessageEvent<ToWorker>) => {
     const analysis = runAnalysis(t, (f) => post({ type: 'progress', id, stage: 'analysing', fraction: f }));
     post({ type: 'analysis', id, analysis });
   } catch (err) {
+    if (err instanceof TooLarge) { post({ type: 'error', id, message: err.message }); return; }
     post({ type: 'error', id, message: `${name}: ${err instanceof Error ? err.message : String(err)}`, internal: true });
   }
 };

@@ -21,6 +21,7 @@ import { installShortcuts } from './shortcuts';
 import { buildGuidePanel, type GuidePanel } from './guide';
 import { allSettings } from '../symmetry';
 import type { PointCloud } from '../../shaders-free-render';
+import { fileTooLargeMessage } from './size-limit';
 
 /** The demo list (public/demo/demo.json, invented samples) names the data set opened when the address names none. */
 export const DEMO_INDEX = 'demo/demo.json';
@@ -160,6 +161,9 @@ class App {
   }
 
   openFile(f: File): void {
+    // refuse before reading: a file the tab cannot hold would freeze it
+    const tooLarge = fileTooLargeMessage(f.name, f.size);
+    if (tooLarge) { this.onError(tooLarge); return; }
     this.loadStarted = performance.now();
     this.firstPictureDone = false;
     this.progress(`reading ${f.name}`, 0);
