@@ -23,10 +23,9 @@ export const numberScan = { status: NUMBER_OK, end: 0 };
 const POW10 = new Float64Array(23);
 for (let j = 0, p = 1; j < 23; j++, p *= 10) POW10[j] = p;
 
+const latin1Decoder = new TextDecoder('latin1');
 function latin1(bytes: Uint8Array, start: number, end: number): string {
-  let s = '';
-  for (let j = start; j < end; j++) s += String.fromCharCode(bytes[j]);
-  return s;
+  return latin1Decoder.decode(bytes.subarray(start, end));
 }
 
 const NONFINITE_WORD = /^[+-]?(nan|inf|infinity)$/i;

@@ -131,7 +131,19 @@ export class ByteCifScanner {
 }
 
 interface ItemRef { start: number; end: number; vkind: number; line: number }
-interface BlockInfo { name: string; line: number; items: Map<string, ItemRef>; reflectionLoops: number }
+/** A data block as the scan meets it; name and header map are made only when asked for (files can hold a million tiny blocks). */
+class BlockInfo {
+  private decoded?: string;
+  private map?: Map<string, ItemRef>;
+  reflectionLoops = 0;
+  constructor(private readonly bytes: Uint8Array, private readonly nameStart: number, private readonly nameEnd: number, readonly line: number) {}
+  get name(): string {
+    return (this.decoded ??= utf8.decode(this.bytes.subarray(this.nameStart, this.nameEnd)));
+  }
+  get items(): Map<string, ItemRef> {
+    return (this.map ??= new Map());
+  }
+}
 
 const CELL_TAGS = ['_cell_length_a', '_cell_length_b', '_cell_length_c', '_cell_angle_alpha', '_cell_angle_beta', '_cell_angle_gamma'] as const;
 const WAVELENGTH_TAGS = ['_diffrn_radiation_wavelength', '_diffrn_radiation_wavelength_wavelength', '_diffrn_source_pdbx_wavelength'];
@@ -282,11 +294,10 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
     if (kind === T_END) break;
     if (kind === T_ERROR) return err(sc.error);
     if (kind === T_DATA) {
-      const name = utf8.decode(bytes.subarray(sc.start + 5, sc.end));
-      if (name === '') return err('data block header without a name (write data_NAME)');
+      if (sc.end - sc.start === 5) return err('data block header without a name (write data_NAME)');
       // done: the chosen block was named and is complete
       if (chosen && wantBlock !== undefined) break;
-      cur = { name, line: sc.tline, items: new Map(), reflectionLoops: 0 };
+      cur = new BlockInfo(bytes, sc.start + 5, sc.end, sc.tline);
       blocks.push(cur);
       inFrame = false;
       kind = sc.next();
