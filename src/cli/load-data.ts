@@ -1,4 +1,4 @@
-import { readFileSync, statSync } from 'node:fs';
+import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { gunzipSync } from 'node:zlib';
 import { InputError, type ReflectionTable } from '../core';
@@ -21,13 +21,43 @@ export const DATA_OPTIONS: readonly OptionSpec[] = [
   { name: 'block', value: true, placeholder: 'NAME', help: 'CIF data block to read (default: the first with reflections)' },
 ];
 
+/** Files above this size are read in chunks with progress on stderr, when stderr is a terminal. */
+export const PROGRESS_MIN_BYTES = 64 << 20;
+const CHUNK_BYTES = 16 << 20;
+
+/** Show one line of progress on a terminal, overwritten in place ('' clears it). */
+export function progressLine(ctx: CliContext, text: string): void {
+  if (ctx.interactive) ctx.err(text ? `\r${text}\x1b[K` : '\r\x1b[K');
+}
+
+/** The whole file, read in chunks so a large one shows how far reading has got. */
+function readInChunks(full: string, shown: string, ctx: CliContext): Buffer {
+  const size = statSync(full).size;
+  if (!ctx.interactive || size < PROGRESS_MIN_BYTES) return readFileSync(full);
+  const out = Buffer.allocUnsafe(size);
+  const fd = openSync(full, 'r');
+  let got = 0;
+  try {
+    while (got < size) {
+      const n = readSync(fd, out, got, Math.min(CHUNK_BYTES, size - got), got);
+      if (n === 0) break;
+      got += n;
+      progressLine(ctx, `reading ${shown}: ${Math.floor((100 * got) / size)} % of ${(size / 1e6).toFixed(0)} MB`);
+    }
+  } finally {
+    closeSync(fd);
+  }
+  progressLine(ctx, `parsing ${shown} ...`);
+  return got === size ? out : out.subarray(0, got);
+}
+
 /** Read a file's bytes, gunzipping gzip content. `path` is relative to ctx.cwd. */
 export function readInputBytes(path: string, ctx: CliContext): Uint8Array {
   const full = resolve(ctx.cwd, path);
   let raw: Buffer;
   try {
     if (statSync(full).isDirectory()) throw new InputError('is a directory, not a file', { file: path });
-    raw = readFileSync(full);
+    raw = readInChunks(full, path, ctx);
   } catch (e) {
     if (e instanceof InputError) throw e;
     const code = (e as NodeJS.ErrnoException).code;
@@ -67,6 +97,7 @@ export function loadReflections(path: string, args: ParsedArgs, ctx: CliContext)
     columns,
     cell: cell?.params(),
   });
+  progressLine(ctx, '');
   if (!r.ok) throw r.error;
   return r.value;
 }

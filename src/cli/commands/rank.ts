@@ -1,6 +1,6 @@
 import type { Command } from '../context';
 import { formatHelp, numberOption, parseArgs, usageError, type CommandSpec } from '../args';
-import { DATA_OPTIONS, cellOption, loadReflections } from '../load-data';
+import { DATA_OPTIONS, cellOption, loadReflections, progressLine } from '../load-data';
 import { rankSpaceGroups, DEFAULT_TOLERANCE, type RankResult } from '../../analysis';
 
 const spec: CommandSpec = {
@@ -119,7 +119,16 @@ export const command: Command = {
     if (!(lengthPercent > 0) || !(angleDeg > 0)) throw usageError('tolerances must be positive numbers', 'rank');
     const table = loadReflections(args.positional[0], args, ctx);
     const cell = cellOption(args);
-    const r = rankSpaceGroups(table, { cell: cell?.params(), chiral: args.flags.has('chiral'), tolerance: { lengthPercent, angleDeg } });
+    // progress on a terminal only (a long ranking of millions of observations should not look hung)
+    let shown = -1;
+    const onProgress = ctx.interactive
+      ? (f: number, stage: string) => {
+        const pc = Math.floor(100 * f);
+        if (pc !== shown) { shown = pc; progressLine(ctx, `ranking: ${stage} ${pc} %`); }
+      }
+      : undefined;
+    const r = rankSpaceGroups(table, { cell: cell?.params(), chiral: args.flags.has('chiral'), tolerance: { lengthPercent, angleDeg } }, onProgress);
+    progressLine(ctx, '');
     if (!r.ok) throw r.error;
     if (args.flags.has('json')) {
       ctx.out(JSON.stringify(r.value, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v)) + '\n');
