@@ -159,6 +159,26 @@ maybe('the web app in Chromium', () => {
     await page.close();
   });
 
+  it('opens a file dropped on the page', async () => {
+    const page = await open('?renderer=cpu&data=none.cif');
+    await page.evaluate((text) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([text], 'dropped.cif'));
+      window.dispatchEvent(new DragEvent('dragenter', { dataTransfer: dt, bubbles: true, cancelable: true }));
+      window.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
+    }, twoRowsCif().text);
+    await page.waitForFunction(() => document.getElementById('dataset-name')?.textContent?.includes('dropped.cif'));
+    expect(await page.locator('#drop-veil').isHidden()).toBe(true);
+    await page.close();
+  });
+
+  it('refuses ?data= from another origin with a clear message', async () => {
+    const page = await open('?renderer=cpu&data=http://elsewhere.invalid/x.cif');
+    await page.waitForSelector('#message.error:not([hidden])');
+    expect(await page.locator('#message .text').textContent()).toMatch(/only data from this server/);
+    await page.close();
+  });
+
   it('opens a gzip-compressed file', async () => {
     const page = await open('?renderer=cpu&data=none.cif');
     await loadText(page, 'rows.cif.gz', gzipSync(Buffer.from(twoRowsCif().text)));
