@@ -29,10 +29,41 @@ export interface ReflectionSummary {
   warnings: string[];
 }
 
-/** Number of distinct (h,k,l) among the rows: open-addressing hash on packed keys, no object per row. */
+/** Bounding boxes up to this many cells are counted with a bit set (32 MB at most). */
+const MAX_BITSET_CELLS = 1 << 28;
+
+/**
+ * Number of distinct (h,k,l) among the rows, no object per row: a bit set over
+ * the bounding box of the indices when it is small enough (the usual case),
+ * otherwise an open-addressing hash on packed keys.
+ */
 export function countUniqueHkl(t: ReflectionTable): number {
   const n = t.n;
   if (n === 0) return 0;
+  const H = t.h, K = t.k, L = t.l;
+  let h0 = H[0], h1 = H[0], k0 = K[0], k1 = K[0], l0 = L[0], l1 = L[0];
+  for (let j = 1; j < n; j++) {
+    const h = H[j], k = K[j], l = L[j];
+    if (h < h0) h0 = h; else if (h > h1) h1 = h;
+    if (k < k0) k0 = k; else if (k > k1) k1 = k;
+    if (l < l0) l0 = l; else if (l > l1) l1 = l;
+  }
+  const nk = k1 - k0 + 1, nl = l1 - l0 + 1;
+  if ((h1 - h0 + 1) * nk * nl <= MAX_BITSET_CELLS) {
+    const bits = new Uint32Array(Math.ceil(((h1 - h0 + 1) * nk * nl) / 32));
+    let unique = 0;
+    for (let j = 0; j < n; j++) {
+      const cellIndex = ((H[j] - h0) * nk + (K[j] - k0)) * nl + (L[j] - l0);
+      const word = cellIndex >>> 5, bit = 1 << (cellIndex & 31);
+      if ((bits[word] & bit) === 0) { bits[word] |= bit; unique++; }
+    }
+    return unique;
+  }
+  return countUniqueHklHashed(t);
+}
+
+function countUniqueHklHashed(t: ReflectionTable): number {
+  const n = t.n;
   let size = 16;
   while (size < 2 * n) size *= 2;
   const mask = size - 1;

@@ -81,7 +81,9 @@ if (existsSync(real)) {
 
 // `lacuna inspect` as a whole process (node start, bundle load, read, summary)
 const bundle = resolve(root, 'dist/cli/lacuna.js');
-if (!existsSync(bundle)) execFileSync('npx', ['vite', 'build', '--mode', 'cli'], { cwd: root, stdio: 'ignore' });
+// rebuild, so the figure is for the current sources, not an old bundle
+execFileSync('npx', ['vite', 'build', '--mode', 'cli'], { cwd: root, stdio: 'ignore' });
+if (!existsSync(bundle)) throw new Error(`the CLI bundle ${bundle} was not built`);
 const bin = resolve(root, 'src/cli/bin.mjs');
 for (const [label, path, target] of [['', file, '< 0.5 s'], [' (gzip)', file + '.gz', '']] as const) {
   const wall: number[] = [];
