@@ -58,6 +58,8 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
   let roles: Int8Array | undefined;
   let sink: RowSink | undefined;
   let needed = 0;
+  // the last comment line before the data: some programs write the header as '# h k l I sigI'
+  let commentStart = -1, commentEnd = -1, commentLine = 0;
   while (pos < n) {
     let eol = b.indexOf(10, pos);
     if (eol < 0) eol = n;
@@ -67,7 +69,11 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
     let s = ls, e = eol;
     while (s < e && isSpace(b[s])) s++;
     while (e > s && isSpace(b[e - 1])) e--;
-    if (s === e || b[s] === 35 /* # */) continue;
+    if (s === e) continue;
+    if (b[s] === 35 /* # */) {
+      if (!roles) { commentStart = s + 1; commentEnd = e; commentLine = line; }
+      continue;
+    }
     if (!roles) {
       // first content line: choose the delimiter, then header or --columns
       const head = b.subarray(s, e);
@@ -82,9 +88,18 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
         parseByteNumber(b, starts[j], ends[j]);
         if (numberScan.status !== NUMBER_OK) numeric = false;
       }
-      if (numeric && !opts.columns)
+      let headerNames: readonly string[] | undefined = opts.columns ?? (numeric ? undefined : names);
+      if (numeric && !opts.columns && commentStart >= 0) {
+        // a commented header naming as many columns as the data has, e.g. '# h k l I sigI'
+        const fromComment = latin1.decode(b.subarray(commentStart, commentEnd)).trim().split(delim === DELIM_SPACE ? /\s+/ : delim === DELIM_TAB ? /\t/ : /,/).map((x) => x.trim());
+        if (fromComment.length === count && typeof planTextColumns(fromComment) !== 'string') {
+          headerNames = fromComment;
+          meta.warnings.push(`column names taken from the comment on line ${commentLine}: ${fromComment.join(' ')}`);
+        }
+      }
+      if (!headerNames)
         return fail('no header row naming the columns', { file, line, column: 1 }, 'Add a first line such as "h k l I sigI", or give --columns h,k,l,i,sigi.');
-      const plan = planTextColumns(opts.columns ?? names);
+      const plan = planTextColumns(headerNames);
       if (typeof plan === 'string')
         return opts.columns
           ? fail(plan, { file: '--columns' })

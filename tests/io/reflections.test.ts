@@ -224,6 +224,13 @@ describe('delimited text', () => {
     expect(t.meta.rejectedByReason).toEqual({ 'too few columns': 1, 'missing value (? or . or empty)': 1, 'more columns than the header names': 1 });
     expect(t.meta.rejectedExamples.map((e) => e.line)).toEqual([3, 4, 5]);
   });
+  it('takes the column names from a commented header line when the data has no header', () => {
+    const t = read('# written by a made-up program\n# h k l I sigI\n1 2 3 45.5 2.5\n');
+    expect(rows(t)).toEqual([[1, 2, 3, 45.5, 2.5]]);
+    expect(t.meta.warnings.join(' ')).toMatch(/column names taken from the comment on line 2: h k l I sigI/);
+    // a comment that does not name the columns is not used
+    expect(readError('# h k l\n1 2 3 4 5\n').message).toMatch(/no header row/);
+  });
   it('errors: no header, unknown or mixed columns', () => {
     let e = readError('1 2 3 4 5\n');
     expect(e.message).toMatch(/no header row/);
