@@ -20,6 +20,7 @@ import { syntheticTable } from './synthetic';
 import { installShortcuts } from './shortcuts';
 import { buildGuidePanel, type GuidePanel } from './guide';
 import { allSettings } from '../symmetry';
+import { parseProfile, type LabProfile } from '../profile';
 import type { PointCloud } from '../../shaders-free-render';
 import { fileTooLargeMessage } from './size-limit';
 
@@ -64,6 +65,8 @@ class App {
   pendingModelUrl: string | undefined;
   gui: GUI;
   guide: GuidePanel | undefined;
+  /** The lab profile whose house rules the guide explains (public/profiles); undefined = built-in defaults. */
+  profile: LabProfile | undefined;
   private dMinController: ReturnType<GUI['add']> | undefined;
   private loadStarted = 0;
   private firstPictureDone = false;
@@ -126,6 +129,7 @@ class App {
       layer: this.layer.plane,
       candidate: c ? { hm: c.hm, rules: c.rules } : undefined,
       settings: siblings,
+      profile: this.profile,
     });
   }
 
@@ -364,6 +368,38 @@ class App {
     if (!lines.length && !allowed.length) info.append(el('span', { class: 'tests muted', text: 'tests no condition in the table' }));
   }
 
+  /** Fills the lab-profile chooser from public/profiles/index.json (files served by this server). */
+  async listProfiles(): Promise<void> {
+    const sel = byId<HTMLSelectElement>('profile-select');
+    let list: Array<{ file: string; name: string }> = [];
+    try {
+      const r = await fetch('profiles/index.json');
+      if (r.ok) list = ((await r.json()) as { profiles?: Array<{ file: string; name: string }> }).profiles ?? [];
+    } catch {
+      list = [];
+    }
+    if (list.length === 0) return;
+    clear(sel);
+    sel.append(el('option', { text: 'built-in lab defaults', attrs: { value: '' } }));
+    for (const p of list) sel.append(el('option', { text: p.name, attrs: { value: p.file } }));
+    sel.hidden = false;
+    sel.addEventListener('change', () => void this.useProfile(sel.value));
+  }
+
+  async useProfile(file: string): Promise<void> {
+    if (!file) { this.profile = undefined; this.updateGuide(); return; }
+    try {
+      const r = await fetch(`profiles/${encodeURIComponent(file)}`);
+      if (!r.ok) throw new Error(`the server answered ${r.status}`);
+      const parsed = parseProfile(await r.text(), file);
+      if (!parsed.ok) { this.onError(parsed.error.describe()); return; }
+      this.profile = parsed.value;
+      this.updateGuide();
+    } catch (e) {
+      this.onError(`${file}: ${e instanceof Error ? e.message : String(e)}`);
+    }
+  }
+
   /** Fills the demo chooser in the top bar. */
   listDemos(samples: Array<{ file: string; title?: string }>): void {
     const sel = byId<HTMLSelectElement>('demo-select');
@@ -409,6 +445,7 @@ async function start(): Promise<void> {
   } else if (data) {
     app.openUrl(data);
   }
+  void app.listProfiles();
   void demoIndex().then((idx) => {
     if (!synthetic && !data) app.openUrl(idx.default ? `demo/${idx.default}` : FALLBACK_DEMO);
     app.listDemos(idx.samples ?? []);

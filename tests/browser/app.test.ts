@@ -251,6 +251,15 @@ maybe('the web app in Chromium', () => {
     await page.close();
   });
 
+  it('passes the chosen lab profile to the conventions guide', async () => {
+    const page = await open('?renderer=cpu');
+    await page.waitForSelector('body[data-state="ready"]');
+    await page.waitForSelector('#profile-select:not([hidden])', { state: 'attached' });
+    await page.locator('#profile-select').selectOption('fernbrook-copper-source.json');
+    await expect.poll(() => page.locator('#guide-slot').textContent()).toContain('Fernbrook copper-source');
+    await page.close();
+  });
+
   it('raised no uncaught page errors', () => {
     expect(pageErrors).toEqual([]);
   });
