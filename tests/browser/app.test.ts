@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { gzipSync } from 'node:zlib';
+import { readFileSync } from 'node:fs';
 import type { BrowserContext, Page } from 'playwright-core';
 import { startServer } from '../../src/cli/serve.mjs';
 import { IN_CI } from '../helpers/paths';
@@ -248,6 +249,17 @@ maybe('the web app in Chromium', () => {
     await page.waitForSelector('body[data-model="qm-101.cif"]');
     await page.waitForFunction(() => document.getElementById('layer-canvas')?.dataset.calc === 'yes');
     expect(await page.locator('#open-model').textContent()).toContain('qm-101.cif');
+    await page.close();
+  });
+
+  it('saves the layer as a PNG file', async () => {
+    const page = await open('?renderer=cpu');
+    await page.waitForSelector('body[data-state="ready"]');
+    const [download] = await Promise.all([page.waitForEvent('download'), page.locator('#layer-export').click()]);
+    expect(download.suggestedFilename()).toBe('layer-hk0.png');
+    const path = await download.path();
+    const bytes = readFileSync(path!);
+    expect([...bytes.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
     await page.close();
   });
 
