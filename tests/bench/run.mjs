@@ -38,6 +38,8 @@ try {
         configFile: false,
         root,
         logLevel: 'warn',
+        // bundles run from the temp folder, where node_modules cannot be found: bundle the test-only packages
+        ssr: { noExternal: ['fast-check', 'pure-rand'] },
         build: {
           ssr: entry,
           outDir: join(out, name),
