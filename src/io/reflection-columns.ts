@@ -94,8 +94,9 @@ export function planCifColumns(tags: readonly string[], override?: readonly stri
  */
 const TEXT_ALIASES: Record<string, number> = {
   h: ROLE_H, k: ROLE_K, l: ROLE_L,
-  i: ROLE_VALUE, int: ROLE_VALUE, intensity: ROLE_VALUE, iobs: ROLE_VALUE, imeas: ROLE_VALUE, f2: ROLE_VALUE, fsq: ROLE_VALUE, fsquared: ROLE_VALUE,
-  sigi: ROLE_SIGMA, sigma: ROLE_SIGMA, sig: ROLE_SIGMA, sigmai: ROLE_SIGMA, sigint: ROLE_SIGMA, sigf2: ROLE_SIGMA, sigmaf2: ROLE_SIGMA, sigfsq: ROLE_SIGMA,
+  i: ROLE_VALUE, int: ROLE_VALUE, intensity: ROLE_VALUE, iobs: ROLE_VALUE, imeas: ROLE_VALUE, imean: ROLE_VALUE, f2: ROLE_VALUE, fsq: ROLE_VALUE, fsquared: ROLE_VALUE,
+  sigi: ROLE_SIGMA, sigma: ROLE_SIGMA, sig: ROLE_SIGMA, sigmai: ROLE_SIGMA, sigint: ROLE_SIGMA, sigiobs: ROLE_SIGMA, sigimean: ROLE_SIGMA,
+  sigf2: ROLE_SIGMA, sigmaf2: ROLE_SIGMA, sigfsq: ROLE_SIGMA,
 };
 const TEXT_AMPLITUDE_ALIASES: Record<string, number> = {
   f: ROLE_VALUE, fobs: ROLE_VALUE, fmeas: ROLE_VALUE, fo: ROLE_VALUE,
