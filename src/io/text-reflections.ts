@@ -7,12 +7,12 @@ import type { ReadReflectionsOptions } from './read-options';
 
 /**
  * Delimited text: one reflection per line, columns separated by whitespace,
- * commas or tabs (decided from the first line), a header row naming the
+ * commas, tabs or semicolons (decided from the first line), a header row naming the
  * columns or names given with --columns. Lines starting with # are comments.
  * Works on byte offsets like the CIF reader.
  */
 
-const DELIM_SPACE = 0, DELIM_COMMA = 44, DELIM_TAB = 9;
+const DELIM_SPACE = 0, DELIM_COMMA = 44, DELIM_TAB = 9, DELIM_SEMICOLON = 59;
 const latin1 = new TextDecoder('latin1');
 
 function isSpace(c: number): boolean {
@@ -77,7 +77,7 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
     if (!roles) {
       // first content line: choose the delimiter, then header or --columns
       const head = b.subarray(s, e);
-      delim = head.includes(DELIM_TAB) ? DELIM_TAB : head.includes(DELIM_COMMA) ? DELIM_COMMA : DELIM_SPACE;
+      delim = head.includes(DELIM_TAB) ? DELIM_TAB : head.includes(DELIM_COMMA) ? DELIM_COMMA : head.includes(DELIM_SEMICOLON) ? DELIM_SEMICOLON : DELIM_SPACE;
       const count = splitFields(b, s, e, delim, starts, ends);
       if (count > starts.length || (opts.columns?.length ?? 0) > starts.length)
         return fail(`more than ${starts.length} columns`, { file, line, column: 1 });
@@ -91,7 +91,7 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
       let headerNames: readonly string[] | undefined = opts.columns ?? (numeric ? undefined : names);
       if (numeric && !opts.columns && commentStart >= 0) {
         // a commented header naming as many columns as the data has, e.g. '# h k l I sigI'
-        const fromComment = latin1.decode(b.subarray(commentStart, commentEnd)).trim().split(delim === DELIM_SPACE ? /\s+/ : delim === DELIM_TAB ? /\t/ : /,/).map((x) => x.trim());
+        const fromComment = latin1.decode(b.subarray(commentStart, commentEnd)).trim().split(delim === DELIM_SPACE ? /\s+/ : String.fromCharCode(delim)).map((x) => x.trim());
         if (fromComment.length === count && typeof planTextColumns(fromComment) !== 'string') {
           headerNames = fromComment;
           meta.warnings.push(`column names taken from the comment on line ${commentLine}: ${fromComment.join(' ')}`);

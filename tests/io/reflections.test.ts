@@ -199,11 +199,12 @@ describe('CIF reflection loops', () => {
 });
 
 describe('delimited text', () => {
-  it('whitespace, comma and tab separated, with header aliases', () => {
+  it('whitespace, comma, tab and semicolon separated, with header aliases', () => {
     const expected = [[1, 2, 3, 45.5, 2.5], [-1, 0, 4, -3, 1]];
     expect(rows(read('# comment\nh k l I sigI\n1 2 3 45.5 2.5\n\n-1  0   4 -3 1\n'))).toEqual(expected);
     expect(rows(read('H,K,L,Int,Sigma\n1,2,3,45.5,2.5\n-1, 0, 4, -3, 1\n'))).toEqual(expected);
     expect(rows(read('h\tk\tl\tintensity\tsig\r\n1\t2\t3\t45.5\t2.5\r\n-1\t0\t4\t-3\t1\r\n'))).toEqual(expected);
+    expect(rows(read('h;k;l;I;sigI\n1;2;3;45.5;2.5\n-1;0;4;-3;1\n'))).toEqual(expected);
     expect(rows(read('h k l Iobs sig(Iobs)\n1 2 3 45.5 2.5\n'))).toEqual([expected[0]]);
     expect(rows(read('h k l F^2 sigma(F^2)\n1 2 3 45.5 2.5\n'))).toEqual([expected[0]]);
     const t = read('batch h k l I sigI\n7 1 2 3 45.5 2.5\n');
