@@ -106,10 +106,10 @@ try {
     }
     reportBench('hardening', {
       name: `lacuna ${cmd}, ${(rows / 1e6).toFixed(0)}M-observation unmerged CIF (${mb.toFixed(0)} MB), whole process`, median: median(wall), unit: 's', runs: wall.length,
-      note: `peak resident ${rss.toFixed(0)} MB (target <= 1024 MB)${rss > 1024 ? ' OVER' : ''}`,
     });
     reportBench('hardening', {
       name: `lacuna ${cmd}, ${(rows / 1e6).toFixed(0)}M observations: peak resident memory`, median: rss, unit: 'MB', runs: wall.length, target: '<= 1024 MB',
+      note: rss > 1024 ? 'OVER the bound' : 'largest of the runs',
     });
     if (rss > 1024) failed = true;
   }
