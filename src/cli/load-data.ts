@@ -73,7 +73,8 @@ export function readInputBytes(path: string, ctx: CliContext): Uint8Array {
     const out = gunzipSync(bytes);
     return new Uint8Array(out.buffer, out.byteOffset, out.byteLength);
   } catch (e) {
-    throw new InputError(`the file looks gzip-compressed but does not decompress (${(e as Error).message})`, { file: path });
+    throw new InputError(`the file looks gzip-compressed but does not decompress (${(e as Error).message})`, { file: path },
+      'It is probably cut off or damaged; copy or download it again.');
   }
 }
 
