@@ -62,6 +62,14 @@ const REFUSED: { file: string; why: string; message: string }[] = [
     file: 'unknown-column.cif', why: 'CIF loop whose value and sigma tags are not in the dictionary',
     message: 'error: unknown-column.cif:2:1: the reflection loop has indices but no measured values with sigmas (looked for _refln_f_squared_meas, _refln_intensity_meas, _refln_f_meas_au, _refln_f_meas; the loop has _refln_index_h, _refln_index_k, _refln_index_l, _refln_intensity_obs, _refln_intensity_esd). Name the five columns to use with --columns h,k,l,value,sigma (tags of this loop).',
   },
+  {
+    file: 'truncated.cif.gz', why: 'gzip file cut off after 150 bytes',
+    message: 'error: truncated.cif.gz: the file looks gzip-compressed but does not decompress (unexpected end of file). It is probably cut off or damaged; copy or download it again.',
+  },
+  {
+    file: 'no-header.txt', why: 'text rows without a header naming the columns',
+    message: 'error: no-header.txt:1:1: no header row naming the columns. Add a first line such as "h k l I sigI", or give --columns h,k,l,i,sigi.',
+  },
 ];
 
 describe('files refused as a whole: exact message, exit code 2', () => {
@@ -178,6 +186,19 @@ describe('files that are fine though unusual', () => {
     });
   });
 
+  it('no-cell.cif: inspect reads it without a resolution; rank asks for the cell', async () => {
+    const r = await lacuna('inspect', 'no-cell.cif');
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/^cell +not given$/m);
+    expect(r.out).toMatch(/^resolution +unknown \(no cell\)$/m);
+    const k = await lacuna('rank', 'no-cell.cif');
+    expect(k).toEqual({
+      code: 2, out: '',
+      err: 'error: no-cell.cif: the file gives no unit cell, and ranking needs one (candidate settings must fit the metric). Give it with --cell a,b,c,alpha,beta,gamma.\n',
+    });
+    expect((await lacuna('rank', 'no-cell.cif', '--cell', '7.512,9.034,11.27,90,101.25,90', '--json')).code).toBe(0);
+  });
+
   it('single-reflection.cif: inspect reads the one row; rank says it is too few', async () => {
     const r = await lacuna('inspect', 'single-reflection.cif', '--json');
     expect(r.code).toBe(0);
@@ -197,7 +218,7 @@ describe('the catalogue is complete', () => {
     const { readdirSync } = await import('node:fs');
     const covered = new Set([
       ...REFUSED.map((c) => c.file), ...PARTLY.map((c) => c.file),
-      'crlf.cif', 'bom.cif', 'windows-export.csv', 'all-intensities-zero.cif', 'single-reflection.cif',
+      'crlf.cif', 'bom.cif', 'windows-export.csv', 'all-intensities-zero.cif', 'single-reflection.cif', 'no-cell.cif',
     ]);
     expect(readdirSync(FILES).filter((f) => !covered.has(f))).toEqual([]);
   });
