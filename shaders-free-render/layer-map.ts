@@ -97,7 +97,7 @@ export function layerPosition(plane: LayerPlane, recip: ArrayLike<number>, h: nu
 }
 
 /** A view that shows every reflection of the layer (or the origin region when empty). */
-export function fitLayerView(opts: Pick<LayerMapOptions, 'plane' | 'recip' | 'data' | 'width' | 'height'>): LayerView {
+export function fitLayerView(opts: Pick<LayerMapOptions, 'plane' | 'recip' | 'data' | 'width' | 'height' | 'textScale'>): LayerView {
   const f = makeFrame(opts.plane, opts.recip);
   const p = [0, 0, 0];
   let minX = Infinity, maxX = -Infinity, minY = Infinity, maxY = -Infinity;
@@ -122,8 +122,15 @@ export function fitLayerView(opts: Pick<LayerMapOptions, 'plane' | 'recip' | 'da
   const ox = o[0] * f.xh[0] + o[1] * f.xh[1] + o[2] * f.xh[2], oy = o[0] * f.yh[0] + o[1] * f.yh[1] + o[2] * f.yh[2];
   minX = Math.min(minX, ox); maxX = Math.max(maxX, ox); minY = Math.min(minY, oy); maxY = Math.max(maxY, oy);
   const spanX = Math.max(maxX - minX, 1e-3), spanY = Math.max(maxY - minY, 1e-3);
-  const scale = Math.min((opts.width * 0.86) / spanX, (opts.height * 0.8) / spanY);
-  return { cx: (minX + maxX) / 2, cy: (minY + maxY) / 2, scale };
+  // Leave room for the title bar above and the index labels around the data.
+  const title = titleBarHeight(Math.max(1, Math.round(opts.textScale ?? 1)));
+  const scale = Math.min((opts.width * 0.84) / spanX, (opts.height * 0.78 - title) / spanY);
+  return { cx: (minX + maxX) / 2, cy: (minY + maxY) / 2 + title / (2 * scale), scale };
+}
+
+/** Height of the title bar at text scale ts. */
+function titleBarHeight(ts: number): number {
+  return textHeight(ts) + 12 * ts;
 }
 
 function niceStep(pxPerIndex: number, minPx: number): number {
@@ -325,10 +332,10 @@ export function drawLayerMap(opts: LayerMapOptions): LayerMapResult {
   const pad = 6 * ts;
   {
     const title = `layer ${plane.name}` + (opts.title ? `  ${opts.title}` : '');
-    fillRect(img, 0, 0, width, th + 2 * pad, MARK.panel);
+    fillRect(img, 0, 0, width, titleBarHeight(ts), MARK.panel);
     drawText(img, clip(title, Math.floor((width - 2 * pad) / (6 * ts))), pad, pad, MARK.text, ts);
   }
-  if (opts.legend !== false) drawLegend(img, ts, { calc: Boolean(opts.calc), rule: opts.ruleText, forbidden: Boolean(opts.forbidden), sat, spotCount, violations });
+  if (opts.legend !== false) drawLegend(img, ts, { calc: Boolean(opts.calc), rule: opts.ruleText, forbidden: Boolean(opts.forbidden), sat, spotCount, violations }, spotX.subarray(0, spotCount), spotY.subarray(0, spotCount));
   return { image: img, view, spotX, spotY, spotRow, spotCount, forbiddenMarked, violations };
 }
 
@@ -358,7 +365,21 @@ function arrow(img: RgbaImage, o: number[], u: number[], len: number, color: num
   drawText(img, label, tx, ty, color, ts, align);
 }
 
-function drawLegend(img: RgbaImage, ts: number, o: { calc: boolean; rule?: string; forbidden: boolean; sat: number; spotCount: number; violations: number }): void {
+/** The corner (bottom right first) whose box of w x h covers the fewest spots. */
+function quietCorner(img: RgbaImage, w: number, h: number, pad: number, top: number, xs: Float32Array, ys: Float32Array): [number, number] {
+  const corners: Array<[number, number]> = [
+    [img.width - w - pad, img.height - h - pad], [img.width - w - pad, top + pad], [pad, img.height - h - pad], [pad, top + pad],
+  ];
+  let best = corners[0], bestCount = Infinity;
+  for (const [x0, y0] of corners) {
+    let c = 0;
+    for (let j = 0; j < xs.length; j++) if (xs[j] >= x0 - 6 && xs[j] <= x0 + w + 6 && ys[j] >= y0 - 6 && ys[j] <= y0 + h + 6) c++;
+    if (c < bestCount) { bestCount = c; best = [x0, y0]; }
+  }
+  return best;
+}
+
+function drawLegend(img: RgbaImage, ts: number, o: { calc: boolean; rule?: string; forbidden: boolean; sat: number; spotCount: number; violations: number }, xs: Float32Array, ys: Float32Array): void {
   const th = textHeight(ts), pad = 6 * ts, line = th + 5 * ts;
   const rows: Array<[kind: string, text: string]> = [['bar', '']];
   rows.push(['disc', o.calc ? 'left half: measured I' : 'measured I']);
@@ -369,8 +390,8 @@ function drawLegend(img: RgbaImage, ts: number, o: { calc: boolean; rule?: strin
   }
   const textW = Math.max(...rows.map((r) => measureText(r[1], ts)), measureText('weak  I  strong', ts));
   const boxW = textW + 3 * pad + 12 * ts, boxH = rows.length * line + th + pad;
-  const x0 = img.width - boxW - pad, y0 = img.height - boxH - pad;
-  if (x0 < 0 || y0 < th + 2 * pad) return;
+  if (boxW + 2 * pad > img.width || boxH + titleBarHeight(ts) + 2 * pad > img.height) return;
+  const [x0, y0] = quietCorner(img, boxW, boxH, pad, titleBarHeight(ts), xs, ys);
   fillRect(img, x0, y0, boxW, boxH, MARK.panel);
   strokeRect(img, x0, y0, boxW, boxH, MARK.grid);
   let y = y0 + pad;
