@@ -283,6 +283,7 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
   let chosen: BlockInfo | undefined;
   let sink: RowSink | undefined;
   let unmerged = false;
+  let atomSites = false; // a structure model given where reflections were expected
   const wantBlock = opts.block?.toLowerCase();
   const wantColumns = opts.columns?.map(normaliseTag);
   const meta = emptyMeta(file);
@@ -332,6 +333,7 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
     if (tags.length === 0) return err("'loop_' without tags", loopLine, loopCol);
     sc.rewind();
     const isRefl = !inFrame && (wantColumns ? wantColumns.every((t) => tags.includes(t)) : isReflectionLoop(tags));
+    if (!atomSites && tags.includes('_atom_site_fract_x')) atomSites = true;
     if (isRefl) cur.reflectionLoops++;
     if (isRefl && !chosen && (wantBlock === undefined || cur.name.toLowerCase() === wantBlock)) {
       const firstAt = new Map<string, number>(); // linear even for a loop with a million tags
@@ -363,7 +365,12 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
       if (!named) return fail(`no data block named '${opts.block}' (blocks in the file: ${names})`, { file });
       return fail(`data block '${named.name}' has no reflection loop`, { file, line: named.line }, 'Reflections are read from a loop with _refln_index_h/_k/_l (or _refln.index_h ..., _diffrn_refln_index_h ...).');
     }
-    if (wantColumns) return fail(`no loop holds all the tags given with --columns (${opts.columns!.join(', ')})`, { file });
+    if (wantColumns)
+      return fail(`no loop holds all the tags given with --columns (${opts.columns!.join(', ')})`, { file },
+        'For a CIF file, --columns names five tags of the reflection loop: h, k, l, value, sigma (e.g. _refln_index_h,_refln_index_k,_refln_index_l,_refln_F_squared_meas,_refln_F_squared_sigma).');
+    if (atomSites)
+      return fail(`no reflection loop found (data blocks: ${names}): this looks like a structure model (it has atom sites)`, { file },
+        'Give a reflection file here; models go to lacuna sf, compare and simulate.');
     return fail(`no reflection loop found (data blocks: ${names})`, { file }, 'Reflections are read from a loop with _refln_index_h/_k/_l (or _refln.index_h ..., _diffrn_refln_index_h ...).');
   }
 
