@@ -67,6 +67,10 @@ const REFUSED: { file: string; why: string; message: string }[] = [
     message: 'error: truncated.cif.gz: the file looks gzip-compressed but does not decompress (unexpected end of file). It is probably cut off or damaged; copy or download it again.',
   },
   {
+    file: 'structure-model.cif', why: 'a structure model given where reflections are expected',
+    message: 'error: structure-model.cif: no reflection loop found (data blocks: qm_model): this looks like a structure model (it has atom sites). Give a reflection file here; models go to lacuna sf, compare and simulate.',
+  },
+  {
     file: 'no-header.txt', why: 'text rows without a header naming the columns',
     message: 'error: no-header.txt:1:1: no header row naming the columns. Add a first line such as "h k l I sigI", or give --columns h,k,l,i,sigi.',
   },
