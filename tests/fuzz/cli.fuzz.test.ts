@@ -1,5 +1,8 @@
 import { afterAll, beforeAll, describe, it } from 'vitest';
 import fc from 'fast-check';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { REPO_ROOT } from '../helpers/paths';
 import { SEEDS, SEED_MODEL } from './seeds';
 import { applyMutations, mutatedFileArb, mutationArb } from './mutate';
 import { FuzzRunner, showBytes } from './worker-runner';
@@ -62,6 +65,23 @@ describe('commands on mutated data files', () => {
         await expectFine(argv, { 'model.cif': applyMutations(SEED_MODEL, muts), 'data.cif': data });
       }),
       { seed: FUZZ_SEED + 11, numRuns: RUNS, endOnFailure: true },
+    );
+  });
+});
+
+describe('lab profiles (JSON) on every command that reads data', () => {
+  it('mutated profiles give a result or exit 2 naming the profile', async () => {
+    const profile = readFileSync(join(REPO_ROOT, 'public/profiles/fernbrook-small-molecule.json'), 'utf8');
+    const data = enc(SEEDS['core.cif']);
+    await fc.assert(
+      fc.asyncProperty(fc.array(mutationArb, { minLength: 1, maxLength: 4 }), fc.constantFrom('inspect', 'rank', 'lattice'), async (muts, cmd) => {
+        const bytes = applyMutations(profile, muts);
+        const a = await runner.run({ kind: 'cli', argv: [cmd, 'data.cif', '--profile', 'lab.json', '--json'], files: { 'lab.json': bytes, 'data.cif': data } }, 30_000);
+        const problems = a.problems.filter((p) => !p.startsWith('error does not name the file'));
+        if (a.outcome.startsWith('exit 2') && !a.outcome.includes('lab.json')) problems.push(`a refused profile is not named: ${a.outcome}`);
+        if (problems.length) throw new Error(`${problems.join('\n')}\n(${a.outcome})\nprofile: ${showBytes(bytes)}`);
+      }),
+      { seed: FUZZ_SEED + 13, numRuns: RUNS, endOnFailure: true },
     );
   });
 });
