@@ -69,6 +69,22 @@ describe('commands on mutated data files', () => {
   });
 });
 
+describe('full-size data sets, damaged', () => {
+  it('the demo data sets (thousands of rows) with damaged values and lines through rank, lattice, layer and reindex', async () => {
+    const demos = ['qm-101.cif', 'qm-102.cif', 'qm-103.cif', 'qm-104.cif'].map((f) => readFileSync(join(REPO_ROOT, 'public/demo', f), 'latin1'));
+    const cmds = [
+      ['rank', 'data.cif', '--json'], ['rank', 'data.cif', '--chiral'], ['lattice', 'data.cif', '--json'],
+      ['layer', 'data.cif', '--plane', 'h0l', '--out', 'l.png', '--size', '200'], ['reindex', 'data.cif', '--transform', 'c,a,b', '--out', 'r.cif'],
+    ];
+    await fc.assert(
+      fc.asyncProperty(fc.nat({ max: 3 }), fc.array(mutationArb, { minLength: 1, maxLength: 12 }), fc.constantFrom(...cmds), async (d, muts, argv) => {
+        await expectFine(argv, { 'data.cif': applyMutations(demos[d], muts) });
+      }),
+      { seed: FUZZ_SEED + 14, numRuns: Math.max(10, Math.ceil(FUZZ_RUNS / 20)), endOnFailure: true },
+    );
+  });
+});
+
 describe('lab profiles (JSON) on every command that reads data', () => {
   it('mutated profiles give a result or exit 2 naming the profile', async () => {
     const profile = readFileSync(join(REPO_ROOT, 'public/profiles/fernbrook-small-molecule.json'), 'utf8');
