@@ -1,5 +1,6 @@
 import type { ReflectionTable } from '../core';
 import type { HklIndex } from './hkl-index';
+import { centricEvidence } from './centric-evidence';
 import { clamp, erf, normalCdf } from './special-functions';
 
 /**
@@ -91,6 +92,8 @@ export interface IntensityStatistics {
   /** log-likelihood ratio (natural log) centric : acentric from N(z) and the second moment, tempered. */
   readonly centricLogOdds: number;
   readonly probabilityCentric: number;
+  /** Centrosymmetric share q of the best-fitting non-centrosymmetric model (centric-evidence.ts). */
+  readonly centricSubstructure: number;
   readonly lTest: { readonly pairs: number; readonly meanAbsL: number; readonly meanL2: number };
 }
 
@@ -155,21 +158,15 @@ export function intensityStatistics(
   const centricFraction = n >= 10 && den > 0 ? clamp(num / den, -1, 2) : 0.5;
 
   let centricLogOdds = 0;
+  const ce = centricEvidence(e2, sE, use);
   if (n >= 10) {
-    // N(z) evidence: f ~ N(1, s^2) centric, N(0, s^2) acentric.
-    let maxDiff = 0;
-    for (let g = 0; g < NZ_GRID.length; g++) maxDiff = Math.max(maxDiff, centricWithErrors[g] - acentricWithErrors[g]);
-    const sSamp = Math.sqrt(0.2 / n) / Math.max(maxDiff, 0.02);
-    const s2 = 0.2 * 0.2 + sSamp * sSamp;
-    const llrNz = (2 * centricFraction - 1) / (2 * s2);
-    // Second moment: 2 acentric, 3 centric; sampling variance of E^4 is 20/n and 96/n (Wilson moments).
-    const t2 = 0.4 * 0.4 + 60 / n;
-    const mm = clamp(secondMoment, 0, 6);
-    const llrM = ((mm - 2) * (mm - 2) - (mm - 3) * (mm - 3)) / (2 * t2);
-    // The two measure overlapping features of the same distribution: temper their sum.
-    // fewer than 500 general reflections: proportionally less weight (thin evidence stays uncertain)
+    // The likelihood treats reflections as independent draws from an ideal distribution;
+    // real structures (few atoms, pseudo-symmetry) depart from it, so it counts as if from at
+    // most 200 reflections, and never beyond the cap. Fewer than 500 general reflections:
+    // proportionally lower cap (thin evidence stays uncertain).
+    const tempered = ce.logOdds * Math.min(1, 200 / Math.max(ce.n, 1));
     const cap = CENTRIC_LOG_ODDS_CAP * Math.min(1, n / 500);
-    centricLogOdds = clamp(0.7 * (llrNz + llrM), -cap, cap);
+    centricLogOdds = clamp(tempered, -cap, cap);
   }
 
   const lTest = lStatistic(table, use, index);
@@ -192,6 +189,7 @@ export function intensityStatistics(
     centricFraction,
     centricLogOdds,
     probabilityCentric: 1 / (1 + Math.exp(-centricLogOdds)),
+    centricSubstructure: ce.bestQ,
     lTest,
   };
 }

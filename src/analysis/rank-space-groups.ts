@@ -1,7 +1,7 @@
 import { fail, ok, type CellParams, type ReflectionTable, type Result } from '../core';
 import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis } from '../lattice';
-import { allSettings, changeBasisOp, opSetKey, type SpaceGroupSetting } from '../symmetry';
-import { absenceEvidence, compileForbids, conditionKey, forbiddenSubset, forbids, type ConditionLike } from './absence-evidence';
+import { allSettings, changeBasisOp, opKey, type SpaceGroupSetting } from '../symmetry';
+import { absenceEvidence, compileForbids, conditionKey, type ConditionLike } from './absence-evidence';
 import { candidateSettings, DEFAULT_TOLERANCE, metricLogPenalty, type MetricTolerance } from './candidates';
 import { HklIndex } from './hkl-index';
 import { intensityStatistics, THEORY } from './intensity-statistics';
@@ -180,15 +180,17 @@ function describeSeparation(members: SpaceGroupSetting[]): string | null {
 
 /** Change of basis from a setting to the standard setting of its type, if a simple one exists. */
 function findChangeToStandard(s: SpaceGroupSetting, standard: SpaceGroupSetting): string | null {
-  const target = opSetKey(standard.ops);
+  // compare operation by operation and stop at the first that is not in the standard setting
+  const target = new Set(standard.ops.map(opKey));
   const tryP = (P: number[], p: number[]): boolean => {
-    const ops = [];
+    const d = Math.abs(P[0] * (P[4] * P[8] - P[5] * P[7]) - P[1] * (P[3] * P[8] - P[5] * P[6]) + P[2] * (P[3] * P[7] - P[4] * P[6]));
+    // a larger new cell adds centring translations that the transformed operations do not list
+    if (s.ops.length * d !== standard.ops.length) return false;
     for (const o of s.ops) {
       const r = changeBasisOp(o, P, p);
-      if (!r.ok || r.value.r.some((v) => v < -2 || v > 2)) return false;
-      ops.push(r.value);
+      if (!r.ok || r.value.r.some((v) => v < -2 || v > 2) || !target.has(opKey(r.value))) return false;
     }
-    return opSetKey(ops) === target;
+    return true;
   };
   const mats: number[][] = [];
   const vals = [-1, 0, 1];
@@ -203,6 +205,11 @@ function findChangeToStandard(s: SpaceGroupSetting, standard: SpaceGroupSetting)
   const weight = (P: number[]) => P.filter((v) => v !== 0).length * 10 + P.filter((v, j) => v !== (j % 4 === 0 ? 1 : 0)).length;
   mats.sort((a, b) => weight(a) - weight(b));
   const zero = [0, 0, 0];
+  // rhombohedral axes to the hexagonal (obverse) setting, International Tables Vol. A, Part 5
+  if (s.ext === 'R') {
+    const P = [1, 0, 1, -1, 1, 1, 0, -1, 1];
+    if (tryP(P, zero)) return formatChangeOfBasis(changeOfBasisFromMatrix(P));
+  }
   for (const P of mats) if (tryP(P, zero)) return formatChangeOfBasis(changeOfBasisFromMatrix(P));
   // origin shift only (origin choices)
   for (let a = 0; a < 8; a++)
@@ -228,7 +235,8 @@ function findChangeToStandard(s: SpaceGroupSetting, standard: SpaceGroupSetting)
  *   filtered files (absence-evidence.ts);
  * - centrosymmetry: the N(z) and second-moment log-odds (intensity-statistics.ts), added to
  *   centrosymmetric candidates.
- * Prior: uniform over Laue classes the metric allows, uniform over settings within a class.
+ * Prior: uniform over Laue classes the metric allows, then over classes of indistinguishable
+ * candidates within each, then over the settings of a class.
  * Probabilities are the normalised posteriors. Linear in the number of reflections.
  */
 export function rankSpaceGroups(input: ReflectionTable, options: RankOptions = {}, onProgress?: RankProgress): Result<RankResult> {
@@ -439,7 +447,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   // is counted over the proper rotations of the Laue class the symmetry evidence favours.
   let bestLaue = '';
   let bestLl = -Infinity;
-  for (const [key, e] of laueClasses) if (e.ll - Math.log(e.members.length) > bestLl) { bestLl = e.ll - Math.log(e.members.length); bestLaue = key; }
+  for (const [key, e] of laueClasses) if (e.ll > bestLl) { bestLl = e.ll; bestLaue = key; }
   const bestRot = bestLaue ? bestLaue.split(';').map((t) => t.split(',').map(Number)) : [];
   const withEpsilon = () => {
     const out = new Float64Array(n);
@@ -470,13 +478,46 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   const wilson = wilsonPlot(shells);
 
   // --- candidate scores
-  const subsetCache = new Map<string, boolean>();
+  // Each distinct condition as the bit set of the indices (|h|,|k|,|l| <= 6) it forbids: enough
+  // for moduli up to 6 and every zone of the table. Subsets and candidate signatures follow
+  // from word operations.
+  const SAMPLE_WORDS = Math.ceil(13 ** 3 / 32);
+  const condBits = condList.map((c) => {
+    const f = compileForbids(c);
+    const bits = new Uint32Array(SAMPLE_WORDS);
+    let q = 0;
+    for (let h = -6; h <= 6; h++)
+      for (let kk = -6; kk <= 6; kk++)
+        for (let l = -6; l <= 6; l++, q++) if (f(h, kk, l)) bits[q >>> 5] |= 1 << (q & 31);
+    return bits;
+  });
   const isSubset = (a: number, b: number) => {
-    const key = `${a}:${b}`;
-    let v = subsetCache.get(key);
-    if (v === undefined) { v = forbiddenSubset(condList[a], condList[b]); subsetCache.set(key, v); }
-    return v;
+    const A = condBits[a], B = condBits[b];
+    for (let w = 0; w < SAMPLE_WORDS; w++) if ((A[w] & ~B[w]) !== 0) return false;
+    return true;
   };
+  // --- indistinguishability classes
+  const sig = cands.map((c, ci) => {
+    const bits = new Uint32Array(SAMPLE_WORDS);
+    for (const id of candConds[ci]) for (let w = 0; w < SAMPLE_WORDS; w++) bits[w] |= condBits[id][w];
+    return `${laueKeys[ci]}|${c.setting.centrosymmetric}|${Array.from(bits, (x) => x.toString(36)).join('.')}`;
+  });
+  const classIdOfSig = new Map<string, number>();
+  const classMembers: number[][] = [];
+  sig.forEach((s, ci) => {
+    let id = classIdOfSig.get(s);
+    if (id === undefined) { id = classMembers.length; classIdOfSig.set(s, id); classMembers.push([]); }
+    classMembers[id].push(ci);
+  });
+  // Prior: uniform over the Laue classes the metric allows, then over the classes of
+  // indistinguishable candidates within each, then over the settings of a class, so that a
+  // family with many settings (P 2 2 2, P m m 2, P 2 m m, P m 2 m) gains nothing by number.
+  const classesInLaue = new Map<string, Set<number>>();
+  sig.forEach((_, ci) => {
+    const key = laueKeys[ci];
+    if (!classesInLaue.has(key)) classesInLaue.set(key, new Set());
+    classesInLaue.get(key)!.add(classIdOfSig.get(sig[ci])!);
+  });
   const scores = cands.map((c, ci) => {
     const mine = new Set(candConds[ci]);
     let absLo = 0;
@@ -490,26 +531,13 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     });
     const laue = laueClasses.get(laueKeys[ci])!;
     const centric = c.setting.centrosymmetric ? stats.centricLogOdds : 0;
-    const logPost = laue.ll - Math.log(laue.members.length) + absLo + missLo + centric;
+    const cls = classIdOfSig.get(sig[ci])!;
+    const logPrior = -Math.log(classesInLaue.get(laueKeys[ci])!.size) - Math.log(classMembers[cls].length);
+    const logPost = laue.ll + logPrior + absLo + missLo + centric;
     return { laue: laue.ll, absLo, missLo, centric, logPost };
   });
   const probs = softmax(scores.map((s) => s.logPost));
 
-  // --- indistinguishability classes
-  const sig = cands.map((c, ci) => {
-    let bits = '';
-    for (let h = -6; h <= 6; h++)
-      for (let kk = -6; kk <= 6; kk++)
-        for (let l = -6; l <= 6; l++) bits += candConds[ci].some((id) => forbids(condList[id], h, kk, l)) ? '1' : '0';
-    return `${laueKeys[ci]}|${c.setting.centrosymmetric}|${bits}`;
-  });
-  const classIdOfSig = new Map<string, number>();
-  const classMembers: number[][] = [];
-  sig.forEach((s, ci) => {
-    let id = classIdOfSig.get(s);
-    if (id === undefined) { id = classMembers.length; classIdOfSig.set(s, id); classMembers.push([]); }
-    classMembers[id].push(ci);
-  });
   const classProb = classMembers.map((m) => m.reduce((a, ci) => a + probs[ci], 0));
   const classOf = new Int32Array(cands.length);
   classMembers.forEach((m, id) => m.forEach((ci) => (classOf[ci] = id)));
@@ -534,7 +562,9 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   const standardOf = new Map<number, SpaceGroupSetting>();
   for (const s of all) if (!standardOf.has(s.number)) standardOf.set(s.number, s);
 
-  const order = cands.map((_, ci) => ci).sort((a, b) => probs[b] - probs[a] || classProb[classOf[b]] - classProb[classOf[a]] || cands[a].setting.index - cands[b].setting.index);
+  // Classes of indistinguishable candidates are what the data decide: order by class
+  // probability, then by candidate within a class.
+  const order = cands.map((_, ci) => ci).sort((a, b) => classProb[classOf[b]] - classProb[classOf[a]] || probs[b] - probs[a] || cands[a].setting.index - cands[b].setting.index);
   // class ids in order of first appearance
   const classRank = new Map<number, number>();
   for (const ci of order) if (!classRank.has(classOf[ci])) classRank.set(classOf[ci], classRank.size);
@@ -650,6 +680,12 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
         'That pattern was counted as evidence, with reduced weight, since it mirrors whoever filtered the file',
     );
   const topLaueKey = laueKeys[top];
+  const topRotations = agreements.filter((a) => inClass(topLaueKey, a.r));
+  if (topRotations.length > 0 && topRotations.every((a) => a.pairs === 0))
+    warnings.push(
+      `the file holds no pair of reflections related by the rotations of Laue class ${topS.laue}: it was evidently reduced to one ` +
+        'asymmetric unit, so the Laue class rests on how the file was merged and on the cell, not on tested intensities',
+    );
   for (const a of agreements) {
     if (!inClass(topLaueKey, a.r) && a.pairs >= 20 && a.cc > 0.5)
       warnings.push(`pseudo-symmetry: the ${a.label} outside the chosen Laue class still relates intensities with CC = ${a.cc.toFixed(2)} over ${a.pairs} pairs`);

@@ -3,8 +3,9 @@ import { runSuite, suiteSettings } from './rank-accuracy';
 
 // CI runs a subsample (every 8th standard setting and every 3rd common non-standard one);
 // `npm run bench` runs all 230 types and all listed non-standard settings (tests/bench/rank.bench.ts).
-// Targets (issue 4): top class right on >= 97 %, truth among the top 5 classes on >= 99 %.
-// On the small CI subsample one miss is allowed in each figure.
+// Targets (issue 4): top class right on >= 97 %, truth among the top 5 classes on >= 99 %,
+// no wrong class above probability 0.9. The remaining misses in the full run are
+// centrosymmetric high-symmetry groups with few atoms, whose statistics look acentric.
 describe('ranking accuracy on simulated data (subsample)', () => {
   it('finds the right class of indistinguishable groups', () => {
     const { standard, nonStandard } = suiteSettings();
@@ -12,8 +13,8 @@ describe('ranking accuracy on simulated data (subsample)', () => {
     const pick = [...standard.filter((_, j) => j % 8 === 3), ...nonStandard.filter((_, j) => j % 3 === 0)];
     const o = runSuite(pick);
     console.log(`rank accuracy (CI subsample): ${o.top1}/${o.total} top-1, ${o.top5}/${o.total} top-5, ${o.confidentWrong} confident wrong\n${o.failures.join('\n')}`);
-    expect(o.top1).toBeGreaterThanOrEqual(Math.ceil(0.9 * o.total));
-    expect(o.top5).toBeGreaterThanOrEqual(Math.ceil(0.97 * o.total));
+    expect(o.top1).toBeGreaterThanOrEqual(Math.ceil(0.97 * o.total));
+    expect(o.top5).toBeGreaterThanOrEqual(Math.ceil(0.99 * o.total));
     expect(o.confidentWrong).toBe(0);
   }, 600_000);
 });
