@@ -9,9 +9,9 @@ import { clamp } from './special-functions';
  * E^2 = u^2 + v^2 with u ~ N(0, (1+q)/2), v ~ N(0, (1-q)/2), whose density is
  *   p_q(z) = exp(-z/(2 alpha)) I0(z (alpha - beta)/(4 alpha beta)) / (2 sqrt(alpha beta)),
  *   alpha = (1+q)/2, beta = (1-q)/2
- * (the sum of two scaled chi-square variables with one degree of freedom); q = 0 is Wilson's
- * acentric distribution, q = 1 the centric one (Wilson 1949; the partially centric case in
- * the spirit of Srinivasan & Parthasarathy's treatment of heavy-atom structures).
+ * (the sum of two scaled chi-square variables with one degree of freedom, derived directly
+ * from the two independent normal components); q = 0 is Wilson's acentric distribution,
+ * q = 1 the centric one (Wilson 1949, Acta Cryst. 2, 318-321).
  * Centrosymmetric candidates are q = 1; non-centrosymmetric ones any q in [0, 0.9], uniform.
  * Each observed z is compared with p_q blurred by its measurement error.
  */
