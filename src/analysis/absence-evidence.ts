@@ -42,7 +42,7 @@ export interface ConditionEvidence {
   readonly meanIOverSigma: number;
   /** Forbidden reflections with I/sigma >= 3. */
   readonly nStrong: number;
-  /** Forbidden reflections with 2 <= I/sigma < 6 (weak violations, e.g. multiple diffraction). */
+  /** Forbidden reflections with 3 <= I/sigma < 6 (weak violations, e.g. multiple diffraction). */
   readonly nWeakViolations: number;
   /** Sum over forbidden reflections of log p(I | absent) - log p(I | present), nats. */
   readonly logOddsIntensities: number;
@@ -199,7 +199,7 @@ export function absenceEvidence(
       sumIs[c] += ios;
       sumLo[c] += weight * lo;
       if (ios >= 3) nStrong[c]++;
-      if (ios >= 2 && ios < 6) nWeak[c]++;
+      if (ios >= 3 && ios < 6) nWeak[c]++;
       if (ios > strongMin[c]) strongMin[c] = insertStrongest(strongest[c], j, ios, table);
     }
     let p;

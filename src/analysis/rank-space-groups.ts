@@ -9,7 +9,7 @@ import { distinctRotations, inverseRotation, MERGED_ROTATION_LOG_ODDS, rotationA
 import { mergeIdentical } from './merge';
 import { buildShells, expectedIntensityColumn, wilsonPlot } from './normalisation';
 import { sigmaScaleFromNegatives, sigmaScaleFromPairs } from './sigma-scale';
-import { softmax } from './special-functions';
+import { normalCdf, softmax } from './special-functions';
 
 export interface RankOptions {
   /** Cell to use instead of the one in the file. */
@@ -668,8 +668,10 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
       warnings.push(`the condition ${condList[id].text} rests on only ${c.n} measured reflection${c.n > 1 ? 's' : ''}`);
     if (c.n === 0 && !c.forbiddenClassMissing)
       warnings.push(`the condition ${condList[id].text} is untested: no reflection of its zone was measured`);
-    if (c.nWeakViolations > 0 && c.nStrong <= Math.max(2, 0.05 * c.n))
-      warnings.push(`${c.nWeakViolations} reflection${c.nWeakViolations > 1 ? 's' : ''} forbidden by ${condList[id].text} show${c.nWeakViolations > 1 ? '' : 's'} 2-6 sigma: weak violations of the kind multiple diffraction produces`);
+    // 3-6 sigma among absent reflections beyond what the Gaussian tail of their errors gives
+    const tail = c.n * (normalCdf(-3 / k) - normalCdf(-6 / k));
+    if (c.nWeakViolations > tail + 3 * Math.sqrt(tail) + 1 && c.nStrong <= Math.max(2, 0.05 * c.n))
+      warnings.push(`${c.nWeakViolations} reflection${c.nWeakViolations > 1 ? 's' : ''} forbidden by ${condList[id].text} show${c.nWeakViolations > 1 ? '' : 's'} 3-6 sigma: weak violations of the kind multiple diffraction produces`);
   }
   const missingTop = topIds.filter((id) => abs.conditions[id].forbiddenClassMissing);
   const absencesRemoved = missingTop.some((id) => abs.conditions[id].nZone >= 10);

@@ -85,6 +85,29 @@ describe('rankSpaceGroups on harder input', () => {
     expect(r.value.warnings.join(' ')).toMatch(/unmerged input/);
     expect(r.value.classes[0].members).toContain('P 1 21/c 1');
   });
+  it('weak violations (a few absent reflections at 4 sigma) are reported and do not overturn the ranking', () => {
+    const t = simulated('P 1 21/c 1', {});
+    const I = Float32Array.from(t.i);
+    let put = 0;
+    for (let j = 0; j < t.n && put < 4; j++)
+      if (t.k[j] === 0 && t.l[j] % 2 !== 0) { I[j] = 4 * t.sigma[j]; put++; }
+    expect(put).toBe(4);
+    const r = rankSpaceGroups({ ...t, i: I });
+    if (!r.ok) throw r.error;
+    expect(r.value.classes[0].members).toContain('P 1 21/c 1');
+    expect(r.value.warnings.join(' ')).toMatch(/h0l: l = 2n show 3-6 sigma: weak violations/);
+  });
+  it('a file with the absent reflections filtered out is recognised as such and still ranked right', () => {
+    const t = simulated('P 1 21/c 1', {});
+    const keep: number[] = [];
+    for (let j = 0; j < t.n; j++) if (!((t.k[j] === 0 && t.l[j] % 2 !== 0) || (t.h[j] === 0 && t.l[j] === 0 && t.k[j] % 2 !== 0))) keep.push(j);
+    const pick = <T extends Int16Array | Float32Array>(a: T) => a.constructor === Int16Array ? Int16Array.from(keep, (j) => a[j]) : Float32Array.from(keep, (j) => a[j]);
+    const r = rankSpaceGroups({ ...t, n: keep.length, h: pick(t.h) as Int16Array, k: pick(t.k) as Int16Array, l: pick(t.l) as Int16Array, i: pick(t.i) as Float32Array, sigma: pick(t.sigma) as Float32Array });
+    if (!r.ok) throw r.error;
+    expect(r.value.absences_removed).toBe(true);
+    expect(r.value.warnings.join(' ')).toMatch(/absences appear to have been removed/);
+    expect(r.value.classes[0].members).toContain('P 1 21/c 1');
+  });
   it('missing sigmas are estimated with a warning, and the ranking still runs', () => {
     const t = simulated('P 21 21 21', {});
     const r = rankSpaceGroups({ ...t, sigma: new Float32Array(t.n) });
