@@ -693,7 +693,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
       warnings.push(`pseudo-symmetry: the ${a.label} outside the chosen Laue class still relates intensities with CC = ${a.cc.toFixed(2)} over ${a.pairs} pairs`);
   }
   if (stats.lTest.pairs >= 50 && stats.lTest.meanAbsL < 0.44)
-    warnings.push(`the L-test gives <|L|> = ${stats.lTest.meanAbsL.toFixed(3)} (0.5 untwinned, 0.375 perfect twin; Padilla & Yeates 2003): possible twinning, which also masks centric/acentric statistics`);
+    warnings.push(`the L-test gives <|L|> = ${stats.lTest.meanAbsL.toFixed(3)} (0.5 untwinned, 0.375 perfect twin; Padilla & Yeates 2003): possible twinning, which also masks centric/acentric statistics (a heavy atom dominating the intensities, e.g. on a special position, lowers <|L|> too)`);
   if (stats.n < 100) warnings.push(`only ${stats.n} general reflections for the centric/acentric test: treat it as weak evidence`);
   // The best class and the next differ only by a centre of symmetry: say which way and how weakly.
   const second = order.find((ci) => classOf[ci] !== classOf[top]);
