@@ -16,49 +16,56 @@ export interface MergeResult {
   readonly sigmaScale: number;
 }
 
+function keyOf(h: number, k: number, l: number): number {
+  return ((h + 4096) * 8192 + (k + 4096)) * 8192 + (l + 4096);
+}
+
 /**
  * Merge repeated observations of the same (h, k, l) (unmerged input) with weights 1/sigma^2.
  * Symmetry-equivalent but different indices stay separate: the Laue-class test needs them.
- * Linear after one sort of integer keys.
+ * Linear: one pass assigns each observation its unique index, a second accumulates.
  */
 export function mergeIdentical(table: ReflectionTable): MergeResult {
   const n = table.n;
-  const keys = new Float64Array(n);
-  const order = new Int32Array(n);
+  const uniqueOf = new Int32Array(n);
+  const firstRow: number[] = [];
+  const ids = new Map<number, number>();
   for (let j = 0; j < n; j++) {
-    order[j] = j;
-    keys[j] = ((table.h[j] + 4096) * 8192 + (table.k[j] + 4096)) * 8192 + (table.l[j] + 4096);
+    const key = keyOf(table.h[j], table.k[j], table.l[j]);
+    let u = ids.get(key);
+    if (u === undefined) { u = firstRow.length; ids.set(key, u); firstRow.push(j); }
+    uniqueOf[j] = u;
   }
-  order.sort((a, b) => keys[a] - keys[b]);
-  const H: number[] = [], K: number[] = [], L: number[] = [], I: number[] = [], S: number[] = [];
-  let num = 0, den = 0, repeated = 0;
+  const m = firstRow.length;
+  const sw = new Float64Array(m), swi = new Float64Array(m), count = new Int32Array(m);
+  for (let j = 0; j < n; j++) {
+    const s = table.sigma[j] > 0 ? table.sigma[j] : 1;
+    const w = 1 / (s * s);
+    const u = uniqueOf[j];
+    sw[u] += w;
+    swi[u] += w * table.i[j];
+    count[u]++;
+  }
+  const H = new Int16Array(m), K = new Int16Array(m), L = new Int16Array(m), I = new Float32Array(m), S = new Float32Array(m);
+  let repeated = 0;
+  for (let u = 0; u < m; u++) {
+    const j = firstRow[u];
+    H[u] = table.h[j]; K[u] = table.k[j]; L[u] = table.l[j];
+    I[u] = swi[u] / sw[u];
+    S[u] = 1 / Math.sqrt(sw[u]);
+    if (count[u] > 1) repeated++;
+  }
+  let num = 0, den = 0;
   const dev: number[] = [];
-  for (let a = 0; a < n; ) {
-    let b = a + 1;
-    while (b < n && keys[order[b]] === keys[order[a]]) b++;
-    let sw = 0, swi = 0;
-    for (let q = a; q < b; q++) {
-      const j = order[q];
-      const s = table.sigma[j] > 0 ? table.sigma[j] : 1;
-      const w = 1 / (s * s);
-      sw += w; swi += w * table.i[j];
-    }
-    const mean = swi / sw;
-    const m = b - a;
-    if (m > 1) {
-      repeated++;
-      for (let q = a; q < b; q++) {
-        const j = order[q];
-        num += Math.abs(table.i[j] - mean);
-        den += table.i[j];
-        const s = table.sigma[j] > 0 ? table.sigma[j] : 1;
-        if (dev.length < 200_000) dev.push(((table.i[j] - mean) / s) * Math.sqrt(m / (m - 1)));
-      }
-    }
-    const j0 = order[a];
-    H.push(table.h[j0]); K.push(table.k[j0]); L.push(table.l[j0]);
-    I.push(mean); S.push(1 / Math.sqrt(sw));
-    a = b;
+  for (let j = 0; j < n; j++) {
+    const u = uniqueOf[j];
+    const c = count[u];
+    if (c < 2) continue;
+    const mean = swi[u] / sw[u];
+    num += Math.abs(table.i[j] - mean);
+    den += table.i[j];
+    const s = table.sigma[j] > 0 ? table.sigma[j] : 1;
+    if (dev.length < 200_000) dev.push(((table.i[j] - mean) / s) * Math.sqrt(c / (c - 1)));
   }
   let sigmaScale = NaN;
   if (dev.length >= 20) {
@@ -66,10 +73,8 @@ export function mergeIdentical(table: ReflectionTable): MergeResult {
     sigmaScale = 1.4826 * abs[abs.length >> 1];
   }
   const merged: ReflectionTable = {
-    n: H.length,
-    h: Int16Array.from(H), k: Int16Array.from(K), l: Int16Array.from(L),
-    i: Float32Array.from(I), sigma: Float32Array.from(S),
+    n: m, h: H, k: K, l: L, i: I, sigma: S,
     meta: { ...table.meta, unmerged: false, warnings: [...table.meta.warnings] },
   };
-  return { table: merged, observations: n, unique: H.length, rInt: den > 0 ? num / den : NaN, repeated, sigmaScale };
+  return { table: merged, observations: n, unique: m, rInt: den > 0 ? num / den : NaN, repeated, sigmaScale };
 }
