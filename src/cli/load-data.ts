@@ -1,8 +1,9 @@
 import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { gunzipSync } from 'node:zlib';
-import { InputError, type ReflectionTable } from '../core';
-import { isGzip, readReflections } from '../io';
+import { InputError, type ReflectionTable, type Result } from '../core';
+import { isGzip, readReflections, type ReadReflectionsOptions } from '../io';
+import { readReflectionsInChunks } from './stream-reflections';
 import { parseCellText, type UnitCell } from '../lattice';
 import type { OptionSpec, ParsedArgs } from './args';
 import type { CliContext } from './context';
@@ -78,6 +79,26 @@ export function readInputBytes(path: string, ctx: CliContext): Uint8Array {
   }
 }
 
+/** Files from this size on are read in chunks (memory: the table and one chunk), when their layout allows. */
+export const STREAM_MIN_BYTES = 64 << 20;
+
+function readLargeInChunks(path: string, opts: ReadReflectionsOptions, ctx: CliContext): Result<ReflectionTable> | undefined {
+  const full = resolve(ctx.cwd, path);
+  let size: number;
+  try {
+    const st = statSync(full);
+    if (!st.isFile()) return undefined;
+    size = st.size;
+  } catch {
+    return undefined; // readInputBytes says why
+  }
+  if (size < STREAM_MIN_BYTES) return undefined;
+  const mb = (size / 1e6).toFixed(0);
+  return readReflectionsInChunks(full, size, opts, {
+    onProgress: (done, total) => progressLine(ctx, `reading ${path}: ${Math.floor((100 * done) / total)} % of ${mb} MB`),
+  });
+}
+
 /** --cell as a checked UnitCell, or undefined when not given. */
 export function cellOption(args: ParsedArgs): UnitCell | undefined {
   const text = args.values.get('cell');
@@ -92,12 +113,8 @@ export function loadReflections(path: string, args: ParsedArgs, ctx: CliContext)
   const cell = cellOption(args);
   const columnsText = args.values.get('columns');
   const columns = columnsText?.split(/[,\s]+/).filter((s) => s !== '');
-  const r = readReflections(readInputBytes(path, ctx), {
-    source: path,
-    block: args.values.get('block'),
-    columns,
-    cell: cell?.params(),
-  });
+  const opts = { source: path, block: args.values.get('block'), columns, cell: cell?.params() };
+  const r = readLargeInChunks(path, opts, ctx) ?? readReflections(readInputBytes(path, ctx), opts);
   progressLine(ctx, '');
   if (!r.ok) throw r.error;
   return r.value;
