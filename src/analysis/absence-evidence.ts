@@ -71,29 +71,69 @@ export interface AbsenceEvidence {
 export interface AbsenceModel {
   /** Robust scale of sigma (true error = k sigma). */
   readonly k: number;
-  /** Fraction of "absent" reflections allowed a weak violation (broader error, x4). */
+  /** Share of "absent" reflections allowed a weak violation (a broader error, x4). */
   readonly violationFraction: number;
+}
+
+/** log of the acentric Wilson density (mean S) convolved with N(0, s^2), at I (French & Wilson 1978). */
+function logAcentricWithError(I: number, s: number, S: number): number {
+  return -Math.log(S) - I / S + (s * s) / (2 * S * S) + logNormalCdf((I - (s * s) / S) / s);
+}
+
+const CQ = 48;
+
+/**
+ * log of the centric Wilson density, p(J) = exp(-J/(2S))/sqrt(2 pi S J), convolved with
+ * N(0, s^2), at I. With J = S w^2 the integrand is smooth; the error kernel confines w to
+ * [sqrt((I - 7s)/S), sqrt((I + 7s)/S)], integrated by the midpoint rule in log space.
+ */
+function logCentricWithError(I: number, s: number, S: number): number {
+  const lo = Math.sqrt(Math.max(0, (I - 7 * s) / S));
+  const hi = Math.max(Math.sqrt(Math.max(0, (I + 7 * s) / S)), lo + Math.sqrt(s / S) * 0.5, 1e-6);
+  const dw = (hi - lo) / CQ;
+  let m = -Infinity;
+  const terms = new Float64Array(CQ);
+  for (let i = 0; i < CQ; i++) {
+    const w = lo + (i + 0.5) * dw;
+    const u = (I - S * w * w) / s;
+    const t = -0.5 * w * w - 0.5 * u * u;
+    terms[i] = t;
+    if (t > m) m = t;
+  }
+  let sum = 0;
+  for (let i = 0; i < CQ; i++) sum += Math.exp(terms[i] - m);
+  // 2/sqrt(2 pi) for the two signs of w, 1/(s sqrt(2 pi)) for the error density
+  return m + Math.log(sum * dw) + Math.log(2 / Math.sqrt(2 * Math.PI)) - Math.log(s) - LOG_SQRT_2PI;
 }
 
 /**
  * log p(I | absent) - log p(I | present) for one reflection.
+ * Present: the Wilson distribution of its shell (mean S, already multiplied by epsilon),
+ * convolved with the error N(0, (k sigma)^2) (French & Wilson 1978, Acta Cryst. A34,
+ * 517-525): acentric, or half acentric and half centric for a reflection in a zone
+ * perpendicular to a 2-fold (`centricWeight` = 0.5), where centric groups of the class make
+ * it centric and the others do not.
  * Absent: I ~ N(0, (k sigma)^2), mixed with a small fraction of N(0, (4 k sigma)^2) for weak
- * violations such as multiple diffraction. Present: the acentric Wilson distribution of
- * its shell, p(J) = exp(-J/S)/S, convolved with the measurement error N(0, (k sigma)^2);
- * closed form as in French & Wilson (1978), Acta Cryst. A34, 517-525.
- * Limited to [-12, +4] nats: one reflection never decides alone, and a very precise zero
- * is only so much more likely under "absent" than under "weak but present".
+ * violations such as multiple diffraction.
+ * Limited to [-12, +4] nats: one reflection never decides alone (a zinger or an overlap can
+ * sit on an absent position), and a very precise zero is only so much more likely under
+ * "absent" than under "weak but present" once the model's own errors are allowed for.
  */
-export function reflectionLogOdds(I: number, sigma: number, S: number, model: AbsenceModel): number {
-  const s = Math.max(model.k * sigma, 1e-12 * Math.max(S, 1));
+export function reflectionLogOdds(I: number, sigma: number, S: number, model: AbsenceModel, centricWeight = 0): number {
+  const s = Math.max(model.k * sigma, 1e-9 * Math.max(S, 1));
+  const Sp = Math.max(S, 1e-30);
   const eps = model.violationFraction;
+  let lp = logAcentricWithError(I, s, Sp);
+  if (centricWeight > 0) {
+    const lc = logCentricWithError(I, s, Sp);
+    const mx = Math.max(lp, lc);
+    lp = mx + Math.log((1 - centricWeight) * Math.exp(lp - mx) + centricWeight * Math.exp(lc - mx));
+  }
   // log[(1-eps) N(I; 0, s^2) + eps N(I; 0, (4s)^2)], one exp and one log unless far in the tail
   const u2 = (I / s) * (I / s);
   const la = u2 < 1400
     ? Math.log((1 - eps) * Math.exp(-0.5 * u2) + 0.25 * eps * Math.exp(-u2 / 32)) - Math.log(s) - LOG_SQRT_2PI
     : Math.log(0.25 * eps) - u2 / 32 - Math.log(s) - LOG_SQRT_2PI;
-  const Sp = Math.max(S, 1e-30);
-  const lp = -Math.log(Sp) - I / Sp + (s * s) / (2 * Sp * Sp) + logNormalCdf((I - (s * s) / Sp) / s);
   return clamp(la - lp, -12, 4);
 }
 
@@ -114,7 +154,7 @@ export const MISSING_CLASS_CAP = 10;
  */
 export function absenceEvidence(
   table: ReflectionTable, expected: Float64Array, conditions: readonly ConditionLike[], model: AbsenceModel,
-  stride = 1,
+  stride = 1, centricZone?: Uint8Array,
 ): AbsenceEvidence {
   const n = table.n;
   const nc = conditions.length;
@@ -188,7 +228,7 @@ export function absenceEvidence(
     const I = table.i[j];
     let lo = 0, weight = 1;
     if (!onlyZoneless || m === 1 || zonelessSeen++ % m === 0) {
-      lo = reflectionLogOdds(I, sig, expected[j], model);
+      lo = reflectionLogOdds(I, sig, expected[j], model, centricZone && centricZone[j] ? 0.5 : 0);
       perReflection[j] = lo;
       if (onlyZoneless) weight = m;
     }

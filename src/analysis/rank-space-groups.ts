@@ -464,12 +464,20 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     }
     return out;
   };
-  abs = absenceEvidence(table, withEpsilon(), condList, model);
+  // reflections perpendicular to a 2-fold of that class are centric in some of its groups
+  const centricZone = new Uint8Array(n);
+  for (let j = 0; j < n; j++) {
+    if (general[j]) continue;
+    const h = table.h[j], kk = table.k[j], l = table.l[j];
+    for (const r of bestRot)
+      if (h * r[0] + kk * r[3] + l * r[6] === -h && h * r[1] + kk * r[4] + l * r[7] === -kk && h * r[2] + kk * r[5] + l * r[8] === -l) { centricZone[j] = 1; break; }
+  }
+  abs = absenceEvidence(table, withEpsilon(), condList, model, 1, centricZone);
   if (excludeClear()) {
     shells = buildShells(table, stol2, use);
     expected = expectedIntensityColumn(shells, stol2, n);
     normalise();
-    abs = absenceEvidence(table, withEpsilon(), condList, model);
+    abs = absenceEvidence(table, withEpsilon(), condList, model, 1, centricZone);
   }
   progress(0.7, 'statistics');
 

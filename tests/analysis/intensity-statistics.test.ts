@@ -81,6 +81,20 @@ describe('per-reflection absence log-odds (French & Wilson 1978 present model)',
     expect(reflectionLogOdds(0.5, 1, 100, model)).toBeGreaterThan(2);
     expect(reflectionLogOdds(60, 1, 100, model)).toBeLessThan(-10);
   });
+  it('a truly present class has negative expected log-odds, centric zones included', () => {
+    // Monte Carlo over Wilson intensities (acentric and centric) with unit errors, mean 20
+    let sa = 0, sc = 0;
+    const N = 4000;
+    for (let j = 0; j < N; j++) {
+      const u1 = (j + 0.5) / N;
+      const ia = -20 * Math.log(1 - u1);                    // acentric quantile
+      const x = Math.sqrt(2) * inverseErf(2 * u1 - 1);      // centric: 20 x^2, x normal
+      sa += reflectionLogOdds(ia, 1, 20, model);
+      sc += reflectionLogOdds(20 * x * x, 1, 20, model, 0.5);
+    }
+    expect(sa / N).toBeLessThan(-0.5);
+    expect(sc / N).toBeLessThan(-0.2);
+  });
   it('a weak reflection in weak data says little', () => {
     expect(Math.abs(reflectionLogOdds(0.5, 1, 1, model))).toBeLessThan(1.5);
   });
@@ -89,3 +103,18 @@ describe('per-reflection absence log-odds (French & Wilson 1978 present model)',
     expect(Number.isFinite(reflectionLogOdds(-5, 1, 1e-9, model))).toBe(true);
   });
 });
+
+/** Inverse error function (Giles 2010 single-precision approximation), for test quantiles. */
+function inverseErf(x: number): number {
+  let w = -Math.log((1 - x) * (1 + x)), p: number;
+  if (w < 5) {
+    w -= 2.5;
+    p = 2.81022636e-8; p = 3.43273939e-7 + p * w; p = -3.5233877e-6 + p * w; p = -4.39150654e-6 + p * w; p = 0.00021858087 + p * w;
+    p = -0.00125372503 + p * w; p = -0.00417768164 + p * w; p = 0.246640727 + p * w; p = 1.50140941 + p * w;
+  } else {
+    w = Math.sqrt(w) - 3;
+    p = -0.000200214257; p = 0.000100950558 + p * w; p = 0.00134934322 + p * w; p = -0.00367342844 + p * w; p = 0.00573950773 + p * w;
+    p = -0.0076224613 + p * w; p = 0.00943887047 + p * w; p = 1.00167406 + p * w; p = 2.83297682 + p * w;
+  }
+  return p * x;
+}

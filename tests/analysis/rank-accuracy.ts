@@ -5,7 +5,7 @@
  */
 import { allSettings, type SpaceGroupSetting } from '../../src/symmetry';
 import { rankSpaceGroups } from '../../src/analysis';
-import { simulateCase } from './rank-simulation';
+import { simulateCase, type CaseQuality } from './rank-simulation';
 
 /** Standard settings (first of each number) and common non-standard ones. */
 export function suiteSettings(): { standard: SpaceGroupSetting[]; nonStandard: SpaceGroupSetting[] } {
@@ -31,11 +31,11 @@ export interface SuiteOutcome {
   readonly failures: string[];
 }
 
-export function runSuite(settings: readonly SpaceGroupSetting[], seedBase = 1000): SuiteOutcome {
+export function runSuite(settings: readonly SpaceGroupSetting[], seedBase = 1000, quality: CaseQuality = 'normal'): SuiteOutcome {
   let top1 = 0, top5 = 0, confidentWrong = 0;
   const failures: string[] = [];
   for (const s of settings) {
-    const c = simulateCase(s, seedBase + s.index);
+    const c = simulateCase(s, seedBase + s.index, 3000, quality);
     const r = rankSpaceGroups(c.table);
     if (!r.ok) { failures.push(`${s.hm}: error ${r.error.message}`); continue; }
     const v = r.value;

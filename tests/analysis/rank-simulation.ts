@@ -48,7 +48,13 @@ export interface SimulatedCase {
   readonly table: ReflectionTable;
 }
 
-export function simulateCase(setting: SpaceGroupSetting, seed: number, targetReflections = 3000): SimulatedCase {
+/**
+ * `weak`: a tenth of the intensity (high-resolution shells near the noise), 25-40 % of the
+ * reflections missing, as in a poorly diffracting or partly measured crystal.
+ */
+export type CaseQuality = 'normal' | 'weak';
+
+export function simulateCase(setting: SpaceGroupSetting, seed: number, targetReflections = 3000, quality: CaseQuality = 'normal'): SimulatedCase {
   const rng = new SeededRandom(seed);
   const nAsu = 4 + rng.below(5);
   const order = setting.ops.length;
@@ -65,10 +71,10 @@ export function simulateCase(setting: SpaceGroupSetting, seed: number, targetRef
   const options = {
     dmin,
     seed: seed + 1,
-    meanIntensity: 200 + 3000 * rng.uniform(),
+    meanIntensity: (200 + 3000 * rng.uniform()) * (quality === 'weak' ? 0.1 : 1),
     background: 20,
     p: 0.03,
-    incompleteness: 0.05 + 0.1 * rng.uniform(),
+    incompleteness: quality === 'weak' ? 0.25 + 0.15 * rng.uniform() : 0.05 + 0.1 * rng.uniform(),
     violations: 0,
     source: `simulated ${setting.hm} seed ${seed}`,
   };
