@@ -17,4 +17,13 @@ describe('ranking accuracy on simulated data (subsample)', () => {
     expect(o.top5).toBeGreaterThanOrEqual(Math.ceil(0.99 * o.total));
     expect(o.confidentWrong).toBe(0);
   }, 600_000);
+  it('stays right or honestly unsure on weak, incomplete data', () => {
+    const { standard, nonStandard } = suiteSettings();
+    const pick = [...standard.filter((_, j) => j % 12 === 5), ...nonStandard.filter((_, j) => j % 6 === 1)];
+    const o = runSuite(pick, 1000, 'weak');
+    console.log(`rank accuracy, weak data (CI subsample): ${o.top1}/${o.total} top-1, ${o.top5}/${o.total} top-5, ${o.confidentWrong} confident wrong\n${o.failures.join('\n')}`);
+    expect(o.top1).toBeGreaterThanOrEqual(Math.ceil(0.9 * o.total));
+    expect(o.top5).toBeGreaterThanOrEqual(Math.ceil(0.97 * o.total));
+    expect(o.confidentWrong).toBe(0);
+  }, 600_000);
 });

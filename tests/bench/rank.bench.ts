@@ -68,3 +68,8 @@ process.stderr.write(o.failures.join('\n') + '\n');
 reportBench('rank', { name: `accuracy suite, top class right (${o.total} settings)`, median: (100 * o.top1) / o.total, unit: '%', runs: 1, target: '>= 97 %', note: `${secs.toFixed(0)} s` });
 reportBench('rank', { name: 'accuracy suite, truth among the top 5 classes', median: (100 * o.top5) / o.total, unit: '%', runs: 1, target: '>= 99 %' });
 reportBench('rank', { name: 'accuracy suite, confident wrong answers (p > 0.9)', median: o.confidentWrong, unit: 'cases', runs: 1, target: '0' });
+
+const weak = runSuite([...standard, ...nonStandard], 1000, 'weak');
+process.stderr.write(weak.failures.join('\n') + '\n');
+reportBench('rank', { name: `accuracy suite, weak incomplete data, top class right`, median: (100 * weak.top1) / weak.total, unit: '%', runs: 1, target: '(no target)' });
+reportBench('rank', { name: 'accuracy suite, weak data, truth among the top 5 / confident wrong', median: (100 * weak.top5) / weak.total, unit: '%', runs: 1, target: '>= 99 %', note: `${weak.confidentWrong} confident wrong` });
