@@ -118,7 +118,7 @@ export function readReflectionsInChunks(path: string, size: number, opts: ReadRe
     const buf = new Uint8Array(rowsStart + chunkBytes + 1);
     buf.set(head.subarray(0, rowsStart));
 
-    const builder = new ReflectionTableBuilder(Math.max(1024, Math.floor(size / 40)));
+    let builder: ReflectionTableBuilder | undefined;
     let meta: ReflectionMeta | undefined;
     const partWarnings: string[][] = [];
     let filePos = rowsStart; // next byte of the file to read
@@ -146,6 +146,8 @@ export function readReflectionsInChunks(path: string, size: number, opts: ReadRe
       else if (t.meta.block !== meta.block || t.meta.origin !== meta.origin || t.meta.unmerged !== meta.unmerged) return undefined;
       addPart(meta, t.meta, shift);
       partWarnings.push(t.meta.warnings);
+      // size the table once from the first chunk's bytes per row, so it rarely grows (growing copies it)
+      builder ??= new ReflectionTableBuilder(Math.ceil(((size - rowsStart) * Math.max(1, t.meta.rowsInFile)) / Math.max(1, cut - rowsStart) * 1.02) + 1024);
       for (let j = 0; j < t.n; j++) builder.push(t.h[j], t.k[j], t.l[j], t.i[j], t.sigma[j]);
       co.onProgress?.(filePos, size);
       if (last) {
@@ -161,7 +163,7 @@ export function readReflectionsInChunks(path: string, size: number, opts: ReadRe
       carry = filled - cut;
       buf.copyWithin(rowsStart, cut, filled);
     }
-    return { ok: true, value: builder.finish(meta!) };
+    return { ok: true, value: builder!.finish(meta!) };
   } catch (e) {
     return fail(`cannot read the file: ${(e as Error).message}`, { file: opts.source });
   } finally {
