@@ -379,7 +379,11 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   const model = { k, violationFraction: 0.03 };
   // a sample of 200,000 reflections is plenty to see which conditions clearly hold
   let abs = absenceEvidence(table, expected, condList, model, Math.max(1, Math.floor(n / 200_000)));
-  const clearTests = () => abs.conditions.filter((c) => c.probabilityAbsent > 0.999 && c.n >= 10).map((c) => compileForbids(c.condition));
+  // "clearly obeyed": near-certain, and hardly any strong reflection among those it forbids
+  // (a class mixing absent and present reflections can still score high on the many zeros)
+  const clearTests = () => abs.conditions
+    .filter((c) => c.probabilityAbsent > 0.999 && c.n >= 10 && c.nStrong <= Math.max(2, 0.02 * c.n))
+    .map((c) => compileForbids(c.condition));
   const excludeClear = () => {
     const clear = clearTests();
     let changed = false;
@@ -552,20 +556,6 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   progress(0.85, 'report');
 
   // --- reports
-  const condReports: ConditionReport[] = abs.conditions.map((c) => ({
-    text: c.condition.text,
-    zone: c.condition.zone.map((e) => [...e]),
-    coeffs: [...c.condition.coeffs],
-    modulus: c.condition.modulus,
-    n: c.n,
-    mean_i_over_sigma: Number.isFinite(c.meanIOverSigma) ? round(c.meanIOverSigma, 2) : null,
-    n_strong: c.nStrong,
-    probability_absent: round(c.probabilityAbsent, 4),
-    n_zone: c.nZone,
-    weak_violations: c.nWeakViolations,
-    forbidden_class_missing: c.forbiddenClassMissing,
-    log_odds: round(c.logOddsIntensities + c.logOddsMissing, 2),
-  }));
   const all = allSettings();
   const standardOf = new Map<number, SpaceGroupSetting>();
   for (const s of all) if (!standardOf.has(s.number)) standardOf.set(s.number, s);
@@ -577,6 +567,34 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   const classRank = new Map<number, number>();
   for (const ci of order) if (!classRank.has(classOf[ci])) classRank.set(classOf[ci], classRank.size);
 
+  // Probability that each condition holds, judged on the reflections it forbids beyond those
+  // the best candidate already forbids (all of them for the best candidate's own conditions):
+  // otherwise "h+k+l = 2n" would look obeyed in F-centred data, where most of the reflections
+  // it forbids are absent for another reason.
+  const bestSet = new Set(candConds[order[0]]);
+  const condProbability = abs.conditions.map((c, id) => {
+    let lo = c.logOddsMissing;
+    for (const p of abs.patterns) {
+      if (!p.ids.includes(id)) continue;
+      if (!bestSet.has(id) && p.ids.some((q) => bestSet.has(q))) continue;
+      lo += p.logOdds;
+    }
+    return 1 / (1 + Math.exp(-Math.max(-700, Math.min(700, lo))));
+  });
+  const condReports: ConditionReport[] = abs.conditions.map((c, j) => ({
+    text: c.condition.text,
+    zone: c.condition.zone.map((e) => [...e]),
+    coeffs: [...c.condition.coeffs],
+    modulus: c.condition.modulus,
+    n: c.n,
+    mean_i_over_sigma: Number.isFinite(c.meanIOverSigma) ? round(c.meanIOverSigma, 2) : null,
+    n_strong: c.nStrong,
+    probability_absent: round(condProbability[j], 4),
+    n_zone: c.nZone,
+    weak_violations: c.nWeakViolations,
+    forbidden_class_missing: c.forbiddenClassMissing,
+    log_odds: round(c.logOddsIntensities + c.logOddsMissing, 2),
+  }));
   const candidates: CandidateReport[] = order.map((ci, rank) => {
     const s = cands[ci].setting;
     const std = standardOf.get(s.number)!;
@@ -621,7 +639,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
           n: c.n,
           mean_i_over_sigma: Number.isFinite(c.meanIOverSigma) ? round(c.meanIOverSigma, 2) : null,
           n_strong: c.nStrong,
-          probability_absent: round(c.probabilityAbsent, 4),
+          probability_absent: round(condProbability[id], 4),
           forbidden_class_missing: c.forbiddenClassMissing,
         };
       }),
