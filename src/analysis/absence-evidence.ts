@@ -154,7 +154,7 @@ export const MISSING_CLASS_CAP = 10;
  */
 export function absenceEvidence(
   table: ReflectionTable, expected: Float64Array, conditions: readonly ConditionLike[], model: AbsenceModel,
-  stride = 1, centricZone?: Uint8Array,
+  stride = 1, centricZone?: Uint8Array, general?: Uint8Array,
 ): AbsenceEvidence {
   const n = table.n;
   const nc = conditions.length;
@@ -186,6 +186,7 @@ export function absenceEvidence(
   // Patterns are keyed by a number: the bit set of the conditions (exact up to 52 conditions),
   // else by text.
   const numericKeys = nc <= 52;
+  const pow2 = Float64Array.from({ length: Math.min(nc, 53) }, (_, c) => 2 ** c);
   const patternByNumber = new Map<number, { ids: number[]; logOdds: number; count: number }>();
   const patternByText = new Map<string, { ids: number[]; logOdds: number; count: number }>();
   const zoneFlat = zoneRows.map((rows) => Int32Array.from(rows.flat()));
@@ -194,10 +195,10 @@ export function absenceEvidence(
   const modFlat = Int32Array.from(moduli);
   const ids: number[] = [];
   // Reflections that only lattice-centring conditions (no zone) forbid can number half a
-  // million; beyond 200,000 of them the log-odds is evaluated for every m-th one and counted
-  // m times (the counts and I/sigma figures stay exact).
+  // million; beyond 50,000 of them the log-odds is evaluated for every m-th one and counted
+  // m times (the counts and I/sigma figures stay exact; the sums are far beyond any doubt).
   const zoneless = zoneFlat.map((r) => r.length === 0);
-  const m = Math.max(1, Math.floor(n / stride / 200_000));
+  const m = Math.max(1, Math.floor(n / stride / 50_000));
   let zonelessSeen = 0;
 
   for (let j = 0; j < n; j += stride) {
@@ -205,7 +206,10 @@ export function absenceEvidence(
     ids.length = 0;
     let key = 0;
     let onlyZoneless = true;
+    // a reflection fixed by no rotation lies in no zone but the whole lattice
+    const isGeneral = general !== undefined && general[j] === 1;
     for (let z = 0; z < zoneFlat.length; z++) {
+      if (isGeneral && !zoneless[z]) continue;
       const rows = zoneFlat[z];
       let inZone = true;
       for (let e = 0; e < rows.length; e += 3) {
@@ -219,7 +223,7 @@ export function absenceEvidence(
         if ((coeffFlat[3 * c] * h + coeffFlat[3 * c + 1] * k + coeffFlat[3 * c + 2] * l) % modFlat[c] !== 0) {
           ids.push(c);
           if (!zoneless[z]) onlyZoneless = false;
-          if (numericKeys) key += 2 ** c;
+          if (numericKeys) key += pow2[c];
         }
       }
     }

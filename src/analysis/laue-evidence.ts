@@ -84,7 +84,9 @@ export function rotationAgreements(
   expected: Float64Array, k: number, use?: Uint8Array,
 ): RotationAgreement[] {
   const n = table.n;
-  const stride = Math.max(1, Math.floor(n / 200_000));
+  // 20,000 reflections per rotation give correlations to +-0.01 and a log-odds far beyond its
+  // +-30 limit; more would only cost time
+  const stride = Math.max(1, Math.floor(n / 20_000));
   return rotations.map((r) => {
     const involution = rotationOrder(r) === 2;
     let pairs = 0, distinct = 0;
@@ -149,8 +151,9 @@ function pairLogOddsSum(
   table: ReflectionTable, expected: Float64Array, k: number, r: readonly number[], index: HklIndex, stride: number, involution: boolean,
   use?: Uint8Array,
 ): number {
-  let sum = 0;
-  for (let j = 0; j < table.n; j += stride) {
+  let sum = 0, pairs = 0;
+  // 5,000 pairs put the sum far beyond its +-30 limit whenever the rotation is decided at all
+  for (let j = 0; j < table.n && pairs < 5_000; j += stride) {
     if (use && !use[j]) continue;
     const h = table.h[j], kk = table.k[j], l = table.l[j];
     const q = index.findWithFriedel(h * r[0] + kk * r[3] + l * r[6], h * r[1] + kk * r[4] + l * r[7], h * r[2] + kk * r[5] + l * r[8]);
@@ -160,6 +163,7 @@ function pairLogOddsSum(
     const e2 = Math.hypot(k * table.sigma[q], 0.03 * Math.max(I2, 0)) || 1e-6;
     const S = Math.max(0.5 * (expected[j] + expected[q]), 1e-30);
     sum += pairLogOdds(I1, e1, I2, e2, S);
+    pairs++;
   }
   return sum;
 }

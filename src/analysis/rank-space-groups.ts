@@ -329,7 +329,8 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   // --- general reflections (not fixed up to sign by any candidate rotation)
   const stol2 = stolSquaredColumn(cell, table);
   const general = new Uint8Array(n);
-  const unionAll = union.flatMap((r) => [r, inverseRotation(r)]);
+  // hR = +-h holds for R exactly when it holds for R^-1, so the union without inverses suffices
+  const unionAll = union;
   for (let j = 0; j < n; j++) {
     const h = table.h[j], k = table.k[j], l = table.l[j];
     let g = 1;
@@ -378,7 +379,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   // of zeros would agree trivially and dilute the shell means.
   const model = { k, violationFraction: 0.03 };
   // a sample of 200,000 reflections is plenty to see which conditions clearly hold
-  let abs = absenceEvidence(table, expected, condList, model, Math.max(1, Math.floor(n / 200_000)));
+  let abs = absenceEvidence(table, expected, condList, model, Math.max(1, Math.floor(n / 200_000)), undefined, general);
   // "clearly obeyed": near-certain, and hardly any strong reflection among those it forbids
   // (a class mixing absent and present reflections can still score high on the many zeros)
   const clearTests = () => abs.conditions
@@ -386,13 +387,13 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     .map((c) => compileForbids(c.condition));
   const excludeClear = () => {
     const clear = clearTests();
-    let changed = false;
+    let changed = 0;
     for (let j = 0; j < n; j++) {
       if (!use[j] && !general[j]) continue;
       let out = false;
       for (const f of clear) if (f(table.h[j], table.k[j], table.l[j])) { out = true; break; }
       const u = out ? 0 : general[j];
-      if (u !== use[j]) { use[j] = u; changed = true; }
+      if (u !== use[j]) { use[j] = u; changed++; }
     }
     return changed;
   };
@@ -405,7 +406,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
       laueUse[j] = out ? 0 : 1;
     }
   };
-  if (excludeClear()) {
+  if (excludeClear() > 0) {
     shells = buildShells(table, stol2, use);
     expected = expectedIntensityColumn(shells, stol2, n);
     normalise();
@@ -423,10 +424,11 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     if (good.length) {
       const p = sigmaScaleFromPairs(table, good, index);
       if (Number.isFinite(p.k)) {
+        const changed = Math.abs(p.k - k) > 0.1 * k;
         k = p.k; kSource = `${p.pairs} weak symmetry-equivalent pairs`;
         model.k = k;
         normalise();
-        agreements = rotationAgreements(table, e2, sE, union, index, expected, k, laueUse);
+        if (changed) agreements = rotationAgreements(table, e2, sE, union, index, expected, k, laueUse);
       }
     }
   }
@@ -476,12 +478,14 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     for (const r of bestRot)
       if (h * r[0] + kk * r[3] + l * r[6] === -h && h * r[1] + kk * r[4] + l * r[7] === -kk && h * r[2] + kk * r[5] + l * r[8] === -l) { centricZone[j] = 1; break; }
   }
-  abs = absenceEvidence(table, withEpsilon(), condList, model, 1, centricZone);
-  if (excludeClear()) {
+  abs = absenceEvidence(table, withEpsilon(), condList, model, 1, centricZone, general);
+  const changedNow = excludeClear();
+  if (changedNow > 0) {
     shells = buildShells(table, stol2, use);
     expected = expectedIntensityColumn(shells, stol2, n);
     normalise();
-    abs = absenceEvidence(table, withEpsilon(), condList, model, 1, centricZone);
+    // the shell means move by the share of reflections that changed; re-weigh only if it matters
+    if (changedNow > 0.01 * n) abs = absenceEvidence(table, withEpsilon(), condList, model, 1, centricZone, general);
   }
   progress(0.7, 'statistics');
 

@@ -15,7 +15,7 @@ import { clamp } from './special-functions';
 export function sigmaScaleFromPairs(table: ReflectionTable, rotations: readonly number[][], index: HklIndex): { k: number; pairs: number } {
   const d: number[] = [];
   const n = table.n;
-  const stride = Math.max(1, Math.floor(n / 200_000));
+  const stride = Math.max(1, Math.floor(n / 50_000));
   for (const r of rotations) {
     for (let j = 0; j < n; j += stride) {
       const h = table.h[j], k = table.k[j], l = table.l[j];
