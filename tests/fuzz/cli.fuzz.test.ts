@@ -38,15 +38,16 @@ const DATA_COMMANDS: string[][] = [
   ['layer', 'DATA', '--plane', 'h1l', '--out', 'layer.png', '--size', '64'],
   ['reindex', 'DATA', '--transform', 'a,b,-a-c', '--out', 'new.cif', '--json'],
   ['reindex', 'DATA', '--transform', '1/2a+1/2b,-1/2a+1/2b,c', '--out', 'new.cif', '--drop-nonintegral'],
+  ['compare', 'model.cif', 'DATA', '--json'],
 ];
 
 describe('commands on mutated data files', () => {
-  it('inspect, rank, lattice, layer and reindex: exit 0 or 2, never a fault', async () => {
+  it('inspect, rank, lattice, layer, reindex and compare: exit 0 or 2, never a fault', async () => {
     await fc.assert(
       fc.asyncProperty(mutatedFileArb(Object.keys(SEEDS), 4), fc.constantFrom(...DATA_COMMANDS), async ({ seed, muts }, cmd) => {
         const name = seed.endsWith('.cif') || seed.endsWith('.mmcif') ? 'data.cif' : 'data.txt';
         const argv = cmd.map((a) => (a === 'DATA' ? name : a));
-        await expectFine(argv, { [name]: applyMutations(SEEDS[seed], muts) });
+        await expectFine(argv, { [name]: applyMutations(SEEDS[seed], muts), 'model.cif': enc(SEED_MODEL) });
       }),
       { seed: FUZZ_SEED + 10, numRuns: RUNS, endOnFailure: true },
     );
