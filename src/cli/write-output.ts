@@ -1,6 +1,8 @@
 import { existsSync, realpathSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { basename, dirname, resolve } from 'node:path';
 import { InputError } from '../core';
+import type { ParsedArgs } from './args';
+import type { CliContext } from './context';
 
 /** True when two paths name the same file (same path, same real path, or same device and inode). */
 export function sameFile(a: string, b: string): boolean {
@@ -23,6 +25,15 @@ export function checkOutputPath(full: string, shown: string, inputs: readonly st
   if (inputs.some((p) => sameFile(p, full))) throw new InputError('the output file is an input file; Lacuna never overwrites its input', { file: shown }, 'Choose another --out name.');
   if (existsSync(full) && statSync(full).isDirectory()) throw new InputError('is a directory, not a file', { file: shown });
   if (!existsSync(dirname(full))) throw new InputError(`the folder ${dirname(shown) || '.'} does not exist`, { file: shown });
+}
+
+/**
+ * The files a command reads, resolved against ctx.cwd: its own inputs and the lab
+ * profile given with --profile, which is an input too (never to be written over).
+ */
+export function commandInputs(ctx: CliContext, args: ParsedArgs, ...paths: string[]): string[] {
+  const profile = args.values.get('profile');
+  return [...paths, ...(profile !== undefined ? [profile] : [])].map((p) => resolve(ctx.cwd, p));
 }
 
 /** Write to a temporary file beside the target, then rename: a reader never sees half a file. */

@@ -7,7 +7,7 @@ import { drawLayerMap, encodePng, onLayer, parseLayerPlane } from '../../../shad
 import type { Command } from '../context';
 import { formatHelp, numberOption, parseArgs, usageError, type CommandSpec } from '../args';
 import { DATA_OPTIONS, loadReflections } from '../load-data';
-import { checkOutputPath, writeFileAtomically } from '../write-output';
+import { checkOutputPath, commandInputs, writeFileAtomically } from '../write-output';
 
 const spec: CommandSpec = {
   name: 'layer',
@@ -46,7 +46,7 @@ export const command: Command = {
     const setting = groupText !== undefined ? getSetting(groupText) : undefined;
     const path = args.positional[0];
     const outFull = resolve(ctx.cwd, outShown);
-    checkOutputPath(outFull, outShown, [resolve(ctx.cwd, path)]);
+    checkOutputPath(outFull, outShown, commandInputs(ctx, args, path));
 
     const table = loadReflections(path, args, ctx);
     if (!table.meta.cell) throw new InputError('the file gives no unit cell; a layer in true geometry needs one', { file: path }, 'Give it with --cell a,b,c,alpha,beta,gamma.');

@@ -2,7 +2,7 @@ import { extname, resolve } from 'node:path';
 import type { Command } from '../context';
 import { formatHelp, parseArgs, usageError, type CommandSpec } from '../args';
 import { DATA_OPTIONS, loadReflections } from '../load-data';
-import { checkOutputPath, writeFileAtomically } from '../write-output';
+import { checkOutputPath, commandInputs, writeFileAtomically } from '../write-output';
 import { InputError } from '../../core';
 import { writeReflectionCif } from '../../io';
 import { formatReflectionText } from '../../profile';
@@ -43,9 +43,8 @@ export const command: Command = {
     if (out === undefined) throw usageError("'reindex' needs --out FILE.cif", 'reindex');
     const cob = parseChangeOfBasis(tText, '--transform');
     if (!cob.ok) throw cob.error;
-    const inPath = resolve(ctx.cwd, file);
     const outPath = resolve(ctx.cwd, out);
-    checkOutputPath(outPath, out, [inPath]);
+    checkOutputPath(outPath, out, commandInputs(ctx, args, file));
 
     const table = loadReflections(file, args, ctx);
     const res = reindexTable(table, cob.value, { dropNonIntegral: args.flags.has('drop-nonintegral') });

@@ -1,7 +1,7 @@
 import { basename, resolve } from 'node:path';
 import { InputError } from '../../core';
 import { writeReflectionCif } from '../../io';
-import { checkOutputPath, writeFileAtomically } from '../write-output';
+import { checkOutputPath, commandInputs, writeFileAtomically } from '../write-output';
 import type { Command } from '../context';
 import { formatHelp, numberOption, parseArgs, usageError, type CommandSpec } from '../args';
 import { loadModel, MODEL_BLOCK_OPTION } from '../load-model';
@@ -60,8 +60,7 @@ export const command: Command = {
     if (out === undefined) throw usageError("'simulate' needs --out FILE.cif", 'simulate');
     const modelPath = args.positional[0];
     const outFull = resolve(ctx.cwd, out);
-    const modelFull = resolve(ctx.cwd, modelPath);
-    checkOutputPath(outFull, out, [modelFull]);
+    checkOutputPath(outFull, out, commandInputs(ctx, args, modelPath));
     const model = loadModel(modelPath, args, ctx);
     const options: SimulationOptions = {
       dmin, seed,
