@@ -140,6 +140,20 @@ describe('the input is never overwritten, outputs are whole or absent', () => {
     noTemporaryFiles();
   });
 
+  it('the lab profile given with --profile is an input too', async () => {
+    const profile = readFileSync(join(REPO_ROOT, 'public/profiles/fernbrook-small-molecule.json'));
+    writeFileSync(join(dir, 'lab.json'), profile);
+    for (const argv of [
+      ['reindex', 'orig.cif', '--transform', 'a,b,c', '--out', 'lab.json', '--profile', 'lab.json'],
+      ['simulate', 'model.cif', '--dmin', '2', '--seed', '1', '--out', 'lab.json', '--profile', 'lab.json'],
+      ['layer', 'orig.cif', '--plane', 'hk0', '--out', 'lab.json', '--profile', 'lab.json'],
+    ]) {
+      const r = await lacuna(...argv);
+      expect({ argv, code: r.code, err: r.err.split('\n').filter((l) => l.startsWith('error:')) }).toEqual({ argv, code: 2, err: [refusal('lab.json').trim()] });
+    }
+    expect(readFileSync(join(dir, 'lab.json'))).toEqual(profile);
+  });
+
   it('an existing output is replaced whole (no tail of the old file), a missing folder writes nothing', async () => {
     writeFileSync(join(dir, 'old.cif'), 'x'.repeat(5_000_000));
     expect((await lacuna('reindex', 'orig.cif', '--transform', 'a,b,c', '--out', 'old.cif')).code).toBe(0);
