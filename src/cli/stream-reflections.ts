@@ -136,6 +136,8 @@ export function readReflectionsInChunks(path: string, size: number, opts: ReadRe
         if (nl < rowsStart) return undefined; // a line longer than a chunk
         cut = nl + 1;
       }
+      // a lone CR is a line end to the CIF reader but not to the line numbers kept here
+      for (let j = buf.indexOf(13, rowsStart); j >= 0 && j < cut; j = buf.indexOf(13, j + 1)) if (j + 1 >= cut || buf[j + 1] !== 10) return undefined;
       const r = readReflections(buf.subarray(0, cut), opts);
       if (!r.ok) return undefined;
       const t = r.value;
