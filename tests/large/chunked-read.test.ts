@@ -78,6 +78,16 @@ describe('chunked reading equals whole-file reading', () => {
     expect((whole as { meta: { rejectedCount: number } }).meta.rejectedCount).toBeGreaterThan(15);
   });
 
+  it('a lone CR (old line end) among the rows, before a rejected row: declined or equal', () => {
+    const path = join(dir, 'u.cif');
+    writeUnmergedCif(path, 3000);
+    const text = readFileSync(path, 'latin1').split('\n');
+    text[500] = text[500] + '\r' + text[501];
+    text[501] = text[2500].replace(/ \S+$/, ' 0');
+    const { whole, chunked } = both('cr.cif', enc(text.join('\n')), 2048);
+    if (chunked !== undefined) expect(chunked).toEqual(whole);
+  });
+
   it('damaged files: equal, or declined', () => {
     fc.assert(
       fc.property(mutatedFileArb(Object.keys(SEEDS), 6), fc.integer({ min: 20, max: 600 }), ({ seed, muts }, chunk) => {
