@@ -490,7 +490,23 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   progress(0.7, 'statistics');
 
   // --- intensity statistics on general, non-absent reflections
-  const stats = intensityStatistics(table, e2, sE, use, index);
+  const statsRaw = intensityStatistics(table, e2, sE, use, index);
+  // A file of "observed" reflections only (an I/sigma cutoff, or negatives dropped) lacks the
+  // weak end of the distribution that tells centric from acentric: halve that evidence.
+  let nNeg = 0, nWeakObs = 0;
+  for (let j = 0; j < n; j++) {
+    if (table.i[j] < 0) nNeg++;
+    if (table.sigma[j] > 0 && table.i[j] < table.sigma[j]) nWeakObs++;
+  }
+  const cutOff = n >= 200 && nNeg === 0 && nWeakObs < 0.01 * n;
+  const stats = cutOff
+    ? { ...statsRaw, centricLogOdds: 0.5 * statsRaw.centricLogOdds, probabilityCentric: 1 / (1 + Math.exp(-0.5 * statsRaw.centricLogOdds)) }
+    : statsRaw;
+  if (cutOff)
+    warnings.push(
+      `no negative intensities and only ${nWeakObs} reflections below 1 sigma: the file seems to hold "observed" reflections only ` +
+        '(a cutoff), which removes the weak end of the intensity distribution; the centric/acentric evidence was halved',
+    );
   const wilson = wilsonPlot(shells);
 
   // --- candidate scores
