@@ -141,6 +141,8 @@ export function readReflectionsInChunks(path: string, size: number, opts: ReadRe
       const r = readReflections(buf.subarray(0, cut), opts);
       if (!r.ok) return undefined;
       const t = r.value;
+      // a warning that names a line would name it within the chunk: read whole instead
+      if (t.meta.warnings.some((w) => /\blines? \d/.test(w))) return undefined;
       // every chunk but the last holds rows only, one per line
       if (!last && t.meta.rowsInFile !== contentLines(buf, rowsStart, cut)) return undefined;
       const shift = firstLine - headerLines - 1;
