@@ -89,6 +89,17 @@ describe('chunked reading equals whole-file reading', () => {
     if (chunked !== undefined) expect(chunked).toEqual(whole);
   });
 
+  it('rows shifted in the last chunk (a value missing on one line, one extra on a later one): the warning names the file line', () => {
+    const path = join(dir, 'u.cif');
+    writeUnmergedCif(path, 3000);
+    const text = readFileSync(path, 'latin1').split('\n');
+    text[2900] = text[2900].replace(/ \S+$/, '');
+    text[2950] = text[2950] + ' 7.5';
+    const { whole, chunked } = both('shift.cif', enc(text.join('\n')), 4096);
+    expect((whole as { meta: { warnings: string[] } }).meta.warnings.join(' ')).toMatch(/line 2901\b/);
+    if (chunked !== undefined) expect(chunked).toEqual(whole);
+  });
+
   it('damaged files: equal, or declined', () => {
     fc.assert(
       fc.property(mutatedFileArb(Object.keys(SEEDS), 6), fc.integer({ min: 20, max: 600 }), ({ seed, muts }, chunk) => {
