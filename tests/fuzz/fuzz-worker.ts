@@ -67,7 +67,7 @@ function cif(bytes: Uint8Array): FuzzAnswer {
     if (!md.ops.length) problems.push('model without operations');
     if (![md.cell.a, md.cell.b, md.cell.c, md.cell.volume].every((x) => Number.isFinite(x) && x > 0)) problems.push('model with an impossible cell');
   }
-  return { problems, outcome: `${d.ok ? 'document read' : 'document refused'}, ${m.ok ? `model with ${m.value.atoms.n ?? '?'} sites` : 'model refused: ' + m.error.describe()}` };
+  return { problems, outcome: `${d.ok ? 'document read' : 'document refused'}, ${m.ok ? `model with ${m.value.atoms.n} sites` : 'model refused: ' + m.error.describe()}` };
 }
 
 async function cli(argv: string[], files: Record<string, Uint8Array>): Promise<FuzzAnswer> {
