@@ -1,7 +1,7 @@
 import { fail, ok, type CellParams, type ReflectionTable, type Result } from '../core';
 import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis } from '../lattice';
 import { allSettings, changeBasisOp, opKey, type SpaceGroupSetting } from '../symmetry';
-import { absenceEvidence, compileForbids, conditionKey, type ConditionLike } from './absence-evidence';
+import { absenceEvidence, compileForbids, conditionKey, MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT, type AbsenceEvidence, type ConditionEvidence, type ConditionLike } from './absence-evidence';
 import { candidateSettings, DEFAULT_TOLERANCE, metricLogPenalty, type MetricTolerance } from './candidates';
 import { HklIndex } from './hkl-index';
 import { intensityStatistics, THEORY } from './intensity-statistics';
@@ -432,14 +432,40 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
       }
     }
   }
+  // A class can be the one the file was merged under only if its asymmetric unit holds as
+  // many reflections as the file has: lattice points in the resolution sphere,
+  // (4/3) pi (1/d_min)^3 V, times the share the (clearly obeyed or filtered) centring
+  // allows, over the Laue group order. Without this, rotations of a larger group would look
+  // "merged" merely because the file's asymmetric unit happens to hold no pair for them.
+  let folded = 0, s2max = 0;
+  for (let j = 0; j < n; j++) {
+    const q = index.find(-table.h[j], -table.k[j], -table.l[j]);
+    if (q < 0 || q > j) folded++;
+    if (stol2[j] > s2max) s2max = stol2[j];
+  }
+  const centring = abs.conditions.filter((c) => c.condition.zone.length === 0 &&
+    (c.forbiddenClassMissing || (c.probabilityAbsent > 0.999 && c.nStrong <= Math.max(2, 0.02 * c.n))));
+  const centringTests = centring.map((c) => compileForbids(c.condition));
+  let allowedPoints = 0;
+  for (let h = -6; h <= 6; h++)
+    for (let kk = -6; kk <= 6; kk++)
+      for (let l = -6; l <= 6; l++) if (!centringTests.some((f) => f(h, kk, l))) allowedPoints++;
+  const latticePoints = (4 / 3) * Math.PI * (2 * Math.sqrt(s2max)) ** 3 * cell.volume * (allowedPoints / 13 ** 3);
+  // share of the class's asymmetric unit the file fills if it was merged under that class
+  const fillOf = (key: string) => (latticePoints > 0 ? (folded * 2 * key.split(';').length) / latticePoints : Infinity);
+  // merged under a class: it fills most of that class's asymmetric unit and no more (0.6-1.25;
+  // a smaller share points to a larger group whose asymmetric unit happens to hold no pairs)
+  const mergedPlausible = (key: string) => { const f = fillOf(key); return f >= 0.6 && f <= 1.25; };
+
   const laueClasses = new Map<string, { members: number[]; ll: number }>();
   laueKeys.forEach((key, c) => {
     let e = laueClasses.get(key);
     if (!e) {
       let ll = metricLogPenalty(cands[c].fit);
+      const canBeMerged = mergedPlausible(key);
       for (const a of agreements) {
         if (!inClass(key, a.r)) continue;
-        ll += a.logOdds + (a.merged ? MERGED_ROTATION_LOG_ODDS : 0);
+        ll += a.logOdds + (a.merged && canBeMerged ? MERGED_ROTATION_LOG_ODDS : 0);
       }
       e = { members: [], ll };
       laueClasses.set(key, e);
@@ -487,6 +513,12 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     // the shell means move by the share of reflections that changed; re-weigh only if it matters
     if (changedNow > 0.01 * n) abs = absenceEvidence(table, withEpsilon(), condList, model, 1, centricZone, general);
   }
+  // A file reduced to one asymmetric unit holds one reflection per orbit, so a zone may be
+  // empty only because its reflections are stored under an equivalent index. Then the
+  // missing-class test looks at orbits: a class counts as missing only if no stored
+  // reflection has an equivalent in it.
+  const bestMerged = bestLaue !== '' && agreements.some((a) => a.merged && inClass(bestLaue, a.r)) && fillOf(bestLaue) <= 1.25;
+  if (bestMerged) abs = withOrbitMissingClasses(abs, table, bestRot);
   progress(0.7, 'statistics');
 
   // --- intensity statistics on general, non-absent reflections
@@ -529,11 +561,12 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     return true;
   };
   // --- indistinguishability classes
-  const sig = cands.map((c, ci) => {
+  const candBits = cands.map((_, ci) => {
     const bits = new Uint32Array(SAMPLE_WORDS);
     for (const id of candConds[ci]) for (let w = 0; w < SAMPLE_WORDS; w++) bits[w] |= condBits[id][w];
-    return `${laueKeys[ci]}|${c.setting.centrosymmetric}|${Array.from(bits, (x) => x.toString(36)).join('.')}`;
+    return bits;
   });
+  const sig = cands.map((c, ci) => `${laueKeys[ci]}|${c.setting.centrosymmetric}|${Array.from(candBits[ci], (x) => x.toString(36)).join('.')}`);
   const classIdOfSig = new Map<string, number>();
   const classMembers: number[][] = [];
   sig.forEach((s, ci) => {
@@ -550,16 +583,24 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     if (!classesInLaue.has(key)) classesInLaue.set(key, new Set());
     classesInLaue.get(key)!.add(classIdOfSig.get(sig[ci])!);
   });
+  const missingConds = abs.conditions.map((c, id) => (c.logOddsMissing > 0 ? id : -1)).filter((id) => id >= 0);
   const scores = cands.map((c, ci) => {
     const mine = new Set(candConds[ci]);
     let absLo = 0;
     for (const p of abs.patterns) if (p.ids.some((id) => mine.has(id))) absLo += p.logOdds;
-    // missing-class evidence, each forbidden set counted once
-    const miss = [...mine].filter((id) => abs.conditions[id].logOddsMissing > 0);
+    // Missing-class evidence: a class of positions absent from the file that this candidate
+    // does not forbid must be missing by chance; each such class counts against it, the
+    // largest classes only (a class inside another missing class adds nothing).
+    const bits = candBits[ci];
+    const unexplained = missingConds.filter((id) => {
+      const cb = condBits[id];
+      for (let w = 0; w < SAMPLE_WORDS; w++) if ((cb[w] & ~bits[w]) !== 0) return true;
+      return false;
+    });
     let missLo = 0;
-    miss.forEach((a, ia) => {
-      const redundant = miss.some((b, ib) => b !== a && isSubset(a, b) && (!isSubset(b, a) || ib < ia));
-      if (!redundant) missLo += abs.conditions[a].logOddsMissing;
+    unexplained.forEach((a, ia) => {
+      const redundant = unexplained.some((b, ib) => b !== a && isSubset(a, b) && (!isSubset(b, a) || ib < ia));
+      if (!redundant) missLo -= abs.conditions[a].logOddsMissing;
     });
     const laue = laueClasses.get(laueKeys[ci])!;
     const centric = c.setting.centrosymmetric ? stats.centricLogOdds : 0;
@@ -695,9 +736,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   const top = order[0];
   const topS = cands[top].setting;
   let dMin = Infinity, dMax = 0, negatives = 0;
-  let s2max = 0;
   for (let j = 0; j < n; j++) {
-    if (stol2[j] > s2max) s2max = stol2[j];
     if (stol2[j] > 0) { const d = 0.5 / Math.sqrt(stol2[j]); if (d < dMin) dMin = d; if (d > dMax) dMax = d; }
     if (table.i[j] < 0) negatives++;
   }
@@ -844,4 +883,47 @@ function estimateCompleteness(table: ReflectionTable, proper: number[][], volume
   // subsampling counts distinct orbits among the sampled rows only; scale back
   const unique = seen.size * stride;
   return lattice > 0 ? Math.min(1, unique / lattice) : null;
+}
+
+/**
+ * Recount the missing-class evidence over orbits of the proper rotations `rots` (with Friedel
+ * mates): a stored reflection stands for all its equivalents.
+ */
+function withOrbitMissingClasses(abs: AbsenceEvidence, table: ReflectionTable, rots: number[][]): AbsenceEvidence {
+  const conds = abs.conditions.map((c) => c.condition);
+  const nc = conds.length;
+  const zoneRows = conds.map((c) => Int32Array.from(c.zone.flat()));
+  const nZone = new Int32Array(nc), nForb = new Int32Array(nc);
+  const zoneHit = new Uint8Array(nc), forbHit = new Uint8Array(nc);
+  for (let j = 0; j < table.n; j++) {
+    zoneHit.fill(0);
+    forbHit.fill(0);
+    const h0 = table.h[j], k0 = table.k[j], l0 = table.l[j];
+    for (const r of rots) {
+      const h = h0 * r[0] + k0 * r[3] + l0 * r[6], k = h0 * r[1] + k0 * r[4] + l0 * r[7], l = h0 * r[2] + k0 * r[5] + l0 * r[8];
+      for (let c = 0; c < nc; c++) {
+        const rows = zoneRows[c];
+        let inZone = true;
+        for (let e = 0; e < rows.length; e += 3) if (rows[e] * h + rows[e + 1] * k + rows[e + 2] * l !== 0) { inZone = false; break; }
+        if (!inZone) continue;
+        zoneHit[c] = 1;
+        const co = conds[c].coeffs;
+        if ((co[0] * h + co[1] * k + co[2] * l) % conds[c].modulus !== 0) forbHit[c] = 1;
+      }
+    }
+    for (let c = 0; c < nc; c++) { nZone[c] += zoneHit[c]; nForb[c] += forbHit[c]; }
+  }
+  const conditions = abs.conditions.map((c, id): ConditionEvidence => {
+    const missing = nForb[id] === 0 && nZone[id] >= 3;
+    const logOddsMissing = missing ? Math.min(MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT * nZone[id] * Math.log(c.condition.modulus)) : 0;
+    const total = c.logOddsIntensities + logOddsMissing;
+    return {
+      ...c,
+      nZone: nZone[id],
+      forbiddenClassMissing: missing,
+      logOddsMissing,
+      probabilityAbsent: 1 / (1 + Math.exp(-Math.max(-700, Math.min(700, total)))),
+    };
+  });
+  return { ...abs, conditions };
 }

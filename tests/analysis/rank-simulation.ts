@@ -9,7 +9,7 @@
  */
 import { makeCell } from '../../src/lattice';
 import { atomSitesFromList, simulateData, SeededRandom, type CrystalModel } from '../../src/model';
-import type { SpaceGroupSetting } from '../../src/symmetry';
+import { isSystematicallyAbsent, type SpaceGroupSetting } from '../../src/symmetry';
 import type { ReflectionTable } from '../../src/core';
 
 function metricFromParams(a: number, b: number, c: number, al: number, be: number, ga: number): number[] {
@@ -49,10 +49,12 @@ export interface SimulatedCase {
 }
 
 /**
+ * `deposited`: as a deposited file usually is: merged to one asymmetric unit of the Laue
+ * class, and the reflections the space group forbids removed.
  * `weak`: a tenth of the intensity (high-resolution shells near the noise), 25-40 % of the
  * reflections missing, as in a poorly diffracting or partly measured crystal.
  */
-export type CaseQuality = 'normal' | 'weak';
+export type CaseQuality = 'normal' | 'weak' | 'deposited';
 
 export function simulateCase(setting: SpaceGroupSetting, seed: number, targetReflections = 3000, quality: CaseQuality = 'normal'): SimulatedCase {
   const rng = new SeededRandom(seed);
@@ -87,5 +89,30 @@ export function simulateCase(setting: SpaceGroupSetting, seed: number, targetRef
     r = simulateData(model, { ...options, violations });
     if (!r.ok) throw r.error;
   }
-  return { setting, table: r.value.table };
+  const table = r.value.table;
+  if (quality !== 'deposited') return { setting, table };
+  // keep the largest measured index of each Laue orbit (Friedel mates included), drop the
+  // systematically absent ones
+  const rots = setting.laueRotations;
+  const key = (h: number, k: number, l: number) => ((h + 512) * 1024 + (k + 512)) * 1024 + (l + 512);
+  const present = new Set<number>();
+  for (let j = 0; j < table.n; j++) present.add(key(table.h[j], table.k[j], table.l[j]));
+  const keep: number[] = [];
+  for (let j = 0; j < table.n; j++) {
+    const h = table.h[j], k = table.k[j], l = table.l[j];
+    if (isSystematicallyAbsent(setting, h, k, l)) continue;
+    let top = true;
+    for (const R of rots) {
+      const a = h * R[0] + k * R[3] + l * R[6], b = h * R[1] + k * R[4] + l * R[7], c = h * R[2] + k * R[5] + l * R[8];
+      const larger = a > h || (a === h && (b > k || (b === k && c > l)));
+      if (larger && (present.has(key(a, b, c)) || present.has(key(-a, -b, -c)))) { top = false; break; }
+    }
+    if (top) keep.push(j);
+  }
+  const pick16 = (x: Int16Array) => Int16Array.from(keep, (j) => x[j]);
+  const pick32 = (x: Float32Array) => Float32Array.from(keep, (j) => x[j]);
+  return {
+    setting,
+    table: { ...table, n: keep.length, h: pick16(table.h), k: pick16(table.k), l: pick16(table.l), i: pick32(table.i), sigma: pick32(table.sigma) },
+  };
 }
