@@ -453,9 +453,11 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   const latticePoints = (4 / 3) * Math.PI * (2 * Math.sqrt(s2max)) ** 3 * cell.volume * (allowedPoints / 13 ** 3);
   // share of the class's asymmetric unit the file fills if it was merged under that class
   const fillOf = (key: string) => (latticePoints > 0 ? (folded * 2 * key.split(';').length) / latticePoints : Infinity);
-  // merged under a class: it fills most of that class's asymmetric unit and no more (0.6-1.25;
-  // a smaller share points to a larger group whose asymmetric unit happens to hold no pairs)
-  const mergedPlausible = (key: string) => { const f = fillOf(key); return f >= 0.6 && f <= 1.25; };
+  // merged under a class: the file fills most of that class's asymmetric unit (a smaller
+  // share points to a larger group whose asymmetric unit happens to hold no pairs for this
+  // class's rotations). The estimate ignores the smaller orbits of special reflections, so it
+  // can exceed 1 for small cells of high symmetry; only a clear excess rules the class out.
+  const mergedPlausible = (key: string) => { const f = fillOf(key); return f >= 0.6 && f <= 2; };
 
   const laueClasses = new Map<string, { members: number[]; ll: number }>();
   laueKeys.forEach((key, c) => {
@@ -517,7 +519,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   // empty only because its reflections are stored under an equivalent index. Then the
   // missing-class test looks at orbits: a class counts as missing only if no stored
   // reflection has an equivalent in it.
-  const bestMerged = bestLaue !== '' && agreements.some((a) => a.merged && inClass(bestLaue, a.r)) && fillOf(bestLaue) <= 1.25;
+  const bestMerged = bestLaue !== '' && agreements.some((a) => a.merged && inClass(bestLaue, a.r)) && fillOf(bestLaue) <= 2;
   if (bestMerged) abs = withOrbitMissingClasses(abs, table, bestRot);
   progress(0.7, 'statistics');
 

@@ -26,4 +26,15 @@ describe('ranking accuracy on simulated data (subsample)', () => {
     expect(o.top5).toBeGreaterThanOrEqual(Math.ceil(0.97 * o.total));
     expect(o.confidentWrong).toBe(0);
   }, 600_000);
+  it('handles files as deposited: merged to one asymmetric unit, absences removed', () => {
+    const { standard, nonStandard } = suiteSettings();
+    const pick = [...standard.filter((_, j) => j % 12 === 7), ...nonStandard.filter((_, j) => j % 6 === 2)];
+    const o = runSuite(pick, 1000, 'deposited');
+    console.log(`rank accuracy, deposited-style files (CI subsample): ${o.top1}/${o.total} top-1, ${o.top5}/${o.total} top-5, ${o.confidentWrong} confident wrong\n${o.failures.join('\n')}`);
+    // few axial reflections often leave screw axes undecided here: the aim is the truth among
+    // the first five and no confident wrong answer
+    expect(o.top1).toBeGreaterThanOrEqual(Math.ceil(0.85 * o.total));
+    expect(o.top5).toBeGreaterThanOrEqual(Math.ceil(0.97 * o.total));
+    expect(o.confidentWrong).toBe(0);
+  }, 600_000);
 });

@@ -91,23 +91,23 @@ export function simulateCase(setting: SpaceGroupSetting, seed: number, targetRef
   }
   const table = r.value.table;
   if (quality !== 'deposited') return { setting, table };
-  // keep the largest measured index of each Laue orbit (Friedel mates included), drop the
+  // keep one measured reflection per Laue orbit (Friedel mates included), and drop the
   // systematically absent ones
   const rots = setting.laueRotations;
   const key = (h: number, k: number, l: number) => ((h + 512) * 1024 + (k + 512)) * 1024 + (l + 512);
-  const present = new Set<number>();
-  for (let j = 0; j < table.n; j++) present.add(key(table.h[j], table.k[j], table.l[j]));
+  const seenOrbit = new Set<number>();
   const keep: number[] = [];
   for (let j = 0; j < table.n; j++) {
     const h = table.h[j], k = table.k[j], l = table.l[j];
     if (isSystematicallyAbsent(setting, h, k, l)) continue;
-    let top = true;
+    let canon = -1;
     for (const R of rots) {
-      const a = h * R[0] + k * R[3] + l * R[6], b = h * R[1] + k * R[4] + l * R[7], c = h * R[2] + k * R[5] + l * R[8];
-      const larger = a > h || (a === h && (b > k || (b === k && c > l)));
-      if (larger && (present.has(key(a, b, c)) || present.has(key(-a, -b, -c)))) { top = false; break; }
+      const q = key(h * R[0] + k * R[3] + l * R[6], h * R[1] + k * R[4] + l * R[7], h * R[2] + k * R[5] + l * R[8]);
+      if (q > canon) canon = q;
     }
-    if (top) keep.push(j);
+    if (seenOrbit.has(canon)) continue;
+    seenOrbit.add(canon);
+    keep.push(j);
   }
   const pick16 = (x: Int16Array) => Int16Array.from(keep, (j) => x[j]);
   const pick32 = (x: Float32Array) => Float32Array.from(keep, (j) => x[j]);

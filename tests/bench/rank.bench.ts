@@ -73,3 +73,8 @@ const weak = runSuite([...standard, ...nonStandard], 1000, 'weak');
 process.stderr.write(weak.failures.join('\n') + '\n');
 reportBench('rank', { name: `accuracy suite, weak incomplete data, top class right`, median: (100 * weak.top1) / weak.total, unit: '%', runs: 1, target: '(no target)' });
 reportBench('rank', { name: 'accuracy suite, weak data, truth among the top 5 / confident wrong', median: (100 * weak.top5) / weak.total, unit: '%', runs: 1, target: '>= 99 %', note: `${weak.confidentWrong} confident wrong` });
+
+const dep = runSuite([...standard, ...nonStandard], 1000, 'deposited');
+process.stderr.write(dep.failures.join('\n') + '\n');
+reportBench('rank', { name: 'accuracy suite, deposited-style files (ASU, absences removed), top class right', median: (100 * dep.top1) / dep.total, unit: '%', runs: 1, target: '(no target)' });
+reportBench('rank', { name: 'accuracy suite, deposited-style files, truth among the top 5', median: (100 * dep.top5) / dep.total, unit: '%', runs: 1, target: '>= 99 %', note: `${dep.confidentWrong} confident wrong` });
