@@ -46,7 +46,7 @@ export function rankText(r: RankResult, top: number): string {
     (r.input.completeness !== null ? `, completeness ~${(100 * r.input.completeness).toFixed(0)} %` : ''));
   L.push('');
   L.push('Most probable settings');
-  L.push('  rank  group                 No.   probability  class  centro  evidence (nats: Laue / absences / missing / centric)');
+  L.push('  rank  group                 No.   probability  class  centro  evidence (nats: Laue / absences / unexplained missing classes / centric)');
   r.candidates.slice(0, top).forEach((cd, j) => {
     L.push(
       `  ${String(j + 1).padStart(4)}  ${cd.hm.padEnd(20)} ${String(cd.number).padStart(4)}   ${pct(cd.probability).padStart(11)}  ${String(cd.class_id + 1).padStart(5)}  ${cd.centrosymmetric ? 'yes' : 'no '}     ` +
