@@ -291,14 +291,3 @@ function insertStrongest(list: number[], j: number, v: number, table: Reflection
   if (list.length > 10) list.pop();
   return list.length === 10 ? ios(list[9]) : -Infinity;
 }
-
-/**
- * Is every reflection that `a` forbids also forbidden by `b`? Checked on all indices up to 6
- * in magnitude, enough for moduli up to 6 and the zones of the settings table.
- */
-export function forbiddenSubset(a: ConditionLike, b: ConditionLike): boolean {
-  for (let h = -6; h <= 6; h++)
-    for (let k = -6; k <= 6; k++)
-      for (let l = -6; l <= 6; l++) if (forbids(a, h, k, l) && !forbids(b, h, k, l)) return false;
-  return true;
-}
