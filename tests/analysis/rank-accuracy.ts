@@ -25,6 +25,7 @@ export function suiteSettings(): { standard: SpaceGroupSetting[]; nonStandard: S
 export interface SuiteOutcome {
   readonly total: number;
   readonly top1: number;
+  readonly top3: number;
   readonly top5: number;
   /** Wrong classes given probability > 0.9. */
   readonly confidentWrong: number;
@@ -32,7 +33,7 @@ export interface SuiteOutcome {
 }
 
 export function runSuite(settings: readonly SpaceGroupSetting[], seedBase = 1000, quality: CaseQuality = 'normal'): SuiteOutcome {
-  let top1 = 0, top5 = 0, confidentWrong = 0;
+  let top1 = 0, top3 = 0, top5 = 0, confidentWrong = 0;
   const failures: string[] = [];
   for (const s of settings) {
     const c = simulateCase(s, seedBase + s.index, 3000, quality);
@@ -45,7 +46,8 @@ export function runSuite(settings: readonly SpaceGroupSetting[], seedBase = 1000
       failures.push(`${s.hm} (No. ${s.number}): top ${v.candidates[0].hm} p=${v.classes[0].probability.toFixed(3)}, truth class rank ${cls + 1}`);
       if (v.classes[0].probability > 0.9) confidentWrong++;
     }
+    if (cls >= 0 && cls < 3) top3++;
     if (cls >= 0 && cls < 5) top5++;
   }
-  return { total: settings.length, top1, top5, confidentWrong, failures };
+  return { total: settings.length, top1, top3, top5, confidentWrong, failures };
 }
