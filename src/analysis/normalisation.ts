@@ -8,7 +8,9 @@ import type { ReflectionTable } from '../core';
  * needed, which keeps a million reflections linear. The mean intensity of each shell,
  * interpolated in log between shell centres, is Sigma(s), the expected intensity of an
  * acentric general reflection (Wilson 1949, Acta Cryst. 2, 318-321). Normalised
- * intensities are E^2 = I / (epsilon Sigma(s)).
+ * intensities are E^2 = I / (epsilon Sigma(s)); the statistics use general reflections
+ * (epsilon = 1), and the absence model multiplies Sigma by epsilon for reflections on
+ * symmetry elements (rank-space-groups.ts).
  */
 export interface ResolutionShells {
   readonly count: number;
