@@ -1,5 +1,5 @@
 import { fail, ok, type CellParams, type ReflectionTable, type Result } from '../core';
-import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis } from '../lattice';
+import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis, findBravaisCandidates, HOLOHEDRY_ORDER } from '../lattice';
 import { allSettings, changeBasisOp, opKey, type SpaceGroupSetting } from '../symmetry';
 import { absenceEvidence, compileForbids, conditionKey, MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT, type AbsenceEvidence, type ConditionEvidence, type ConditionLike } from './absence-evidence';
 import { candidateSettings, DEFAULT_TOLERANCE, metricLogPenalty, type MetricTolerance } from './candidates';
@@ -782,6 +782,18 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   if (stats.lTest.pairs >= 50 && stats.lTest.meanAbsL < 0.44)
     warnings.push(`the L-test gives <|L|> = ${stats.lTest.meanAbsL.toFixed(3)} (0.5 untwinned, 0.375 perfect twin; Padilla & Yeates 2003): possible twinning, which also masks centric/acentric statistics (a heavy atom dominating the intensities, e.g. on a special position, lowers <|L|> too)`);
   if (stats.n < 100) warnings.push(`only ${stats.n} general reflections for the centric/acentric test: treat it as weak evidence`);
+  // A lattice of higher symmetry in another basis (e.g. a C-centred monoclinic lattice indexed
+  // on its reduced triclinic cell) cannot be tested in these axes: say how to reindex.
+  const maxHere = cands.reduce((a, c) => Math.max(a, 2 * properRotations(c.setting).length), 2);
+  const bravais = findBravaisCandidates(cell.params(), { toleranceDeg: tol.angleDeg });
+  if (bravais.ok) {
+    const better = bravais.value.candidates.find((b) => HOLOHEDRY_ORDER[b.bravais] > maxHere);
+    if (better)
+      warnings.push(
+        `in another basis the lattice metric fits ${better.bravais} (deviation ${better.deviationDeg.toFixed(2)} degrees), which these axes cannot show: ` +
+          `reindex with the change of basis ${formatChangeOfBasis(better.transform)} (lacuna reindex) and rank again`,
+      );
+  }
   // The best class and the next differ only by a centre of symmetry: say which way and how weakly.
   const second = order.find((ci) => classOf[ci] !== classOf[top]);
   if (second !== undefined && laueKeys[second] === laueKeys[top] && cands[second].setting.centrosymmetric !== topS.centrosymmetric &&

@@ -7,6 +7,7 @@ import { rankSpaceGroups } from '../../src/analysis';
 import { findSetting } from '../../src/symmetry';
 import { atomSitesFromList, simulateData } from '../../src/model';
 import { realdata } from '../helpers/paths';
+import { parseChangeOfBasis, reindexTable } from '../../src/lattice';
 import { randomCellFor } from './rank-simulation';
 import { SeededRandom } from '../../src/model';
 
@@ -107,6 +108,19 @@ describe('rankSpaceGroups on harder input', () => {
     expect(r.value.absences_removed).toBe(true);
     expect(r.value.warnings.join(' ')).toMatch(/absences appear to have been removed/);
     expect(r.value.classes[0].members).toContain('P 1 21/c 1');
+  });
+  it('a C-centred monoclinic lattice indexed on a primitive cell gets told how to reindex', () => {
+    const t = simulated('C 1 2/c 1', {});
+    const keep: number[] = [];
+    for (let j = 0; j < t.n; j++) if ((t.h[j] + t.k[j]) % 2 === 0) keep.push(j);
+    const c = { ...t, n: keep.length, h: Int16Array.from(keep, (j) => t.h[j]), k: Int16Array.from(keep, (j) => t.k[j]), l: Int16Array.from(keep, (j) => t.l[j]), i: Float32Array.from(keep, (j) => t.i[j]), sigma: Float32Array.from(keep, (j) => t.sigma[j]) };
+    const cob = parseChangeOfBasis('1/2a-1/2b,1/2a+1/2b,c'); // a primitive cell of the C lattice
+    if (!cob.ok) throw cob.error;
+    const p = reindexTable(c, cob.value);
+    if (!p.ok) throw p.error;
+    const r = rankSpaceGroups(p.value);
+    if (!r.ok) throw r.error;
+    expect(r.value.warnings.join(' ')).toMatch(/in another basis the lattice metric fits mC/);
   });
   it('missing sigmas are estimated with a warning, and the ranking still runs', () => {
     const t = simulated('P 21 21 21', {});
