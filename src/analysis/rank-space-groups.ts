@@ -1,5 +1,5 @@
 import { fail, ok, type CellParams, type ReflectionTable, type Result } from '../core';
-import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis, findBravaisCandidates, HOLOHEDRY_ORDER } from '../lattice';
+import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis, findBravaisCandidates, HOLOHEDRY_ORDER, basisMatrix } from '../lattice';
 import { allSettings, changeBasisOp, opKey, type SpaceGroupSetting } from '../symmetry';
 import { absenceEvidence, compileForbids, conditionKey, MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT, type AbsenceEvidence, type ConditionEvidence, type ConditionLike } from './absence-evidence';
 import { candidateSettings, DEFAULT_TOLERANCE, metricLogPenalty, type MetricTolerance } from './candidates';
@@ -784,10 +784,22 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   if (stats.n < 100) warnings.push(`only ${stats.n} general reflections for the centric/acentric test: treat it as weak evidence`);
   // A lattice of higher symmetry in another basis (e.g. a C-centred monoclinic lattice indexed
   // on its reduced triclinic cell) cannot be tested in these axes: say how to reindex.
-  const maxHere = cands.reduce((a, c) => Math.max(a, 2 * properRotations(c.setting).length), 2);
+  // best metric fit in these axes per holohedry order
+  const bestFitHere = new Map<number, number>();
+  cands.forEach((c, ci) => {
+    const order = 2 * candRot[ci].length;
+    bestFitHere.set(order, Math.min(bestFitHere.get(order) ?? Infinity, c.fit.angleDeg));
+  });
+  const signedPermutation = (m: number[]) =>
+    [0, 1, 2].every((i) => [0, 1, 2].filter((j) => m[3 * i + j] !== 0).length === 1 && [0, 1, 2].some((j) => Math.abs(m[3 * i + j]) === 1));
   const bravais = findBravaisCandidates(cell.params(), { toleranceDeg: tol.angleDeg });
   if (bravais.ok) {
-    const better = bravais.value.candidates.find((b) => HOLOHEDRY_ORDER[b.bravais] > maxHere);
+    const better = bravais.value.candidates.find((b) => {
+      const order = HOLOHEDRY_ORDER[b.bravais];
+      if (signedPermutation(basisMatrix(b.transform))) return false;
+      const here = [...bestFitHere.entries()].filter(([o]) => o >= order).reduce((a, [, f]) => Math.min(a, f), Infinity);
+      return b.deviationDeg < here - 0.1;
+    });
     if (better)
       warnings.push(
         `in another basis the lattice metric fits ${better.bravais} (deviation ${better.deviationDeg.toFixed(2)} degrees), which these axes cannot show: ` +
