@@ -80,7 +80,9 @@ export function rankText(r: RankResult, top: number): string {
   for (const lc of r.laue.classes.slice(0, 6))
     L.push(`  ${lc.symbol.padEnd(7)} ${pct(lc.probability).padStart(7)}  (symmetry alone ${pct(lc.probability_from_symmetry)})  ${lc.axes}`);
   for (const a of r.laue.rotations)
-    L.push(`    ${a.label.padEnd(22)} ${a.pairs > 0 ? `CC ${f(a.cc, 3)} over ${a.pairs} pairs (expected ${f(a.cc_expected, 2)} if exact)` : a.merged ? 'no pairs: the file appears merged under it' : 'no pairs'}`);
+    L.push(`    ${a.label.padEnd(22)} ${a.pairs > 0
+      ? `CC ${f(a.cc, 3)} over ${a.pairs} pairs (expected ${f(a.cc_expected, 2)} if exact); differences against their errors: ${a.log_odds > 2 ? 'agree' : a.log_odds < -2 ? 'disagree' : 'undecided'} (${a.log_odds > 0 ? '+' : ''}${f(a.log_odds, 1)} nats)`
+      : a.merged ? 'no pairs: the file appears merged under it' : 'no pairs'}`);
   L.push('');
   L.push('Reflection conditions (zone: rule, reflections it forbids that were measured)');
   L.push('  condition               n   <I/sig>  I/sig>=3   P(holds)');
