@@ -103,9 +103,15 @@ export interface CandidateReport {
   number: number;
   hm: string;
   hall: string;
+  /**
+   * Probability of this candidate's class of settings that the data cannot tell apart
+   * (same Laue class, same absences, same centricity): that is what intensities can decide,
+   * so candidates are sorted by it. Members of one class share it.
+   */
   probability: number;
+  /** This setting's own share: the class probability split by the prior within the class. */
+  setting_probability: number;
   class_id: number;
-  class_probability: number;
   laue: string;
   crystal_system: string;
   centrosymmetric: boolean;
@@ -679,9 +685,9 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
       number: s.number,
       hm: s.hm,
       hall: s.hall,
-      probability: round(probs[ci], 5),
+      probability: round(classProb[classOf[ci]], 5),
+      setting_probability: round(probs[ci], 5),
       class_id: classRank.get(classOf[ci])!,
-      class_probability: round(classProb[classOf[ci]], 5),
       laue: s.laue,
       crystal_system: s.crystalSystem,
       centrosymmetric: s.centrosymmetric,

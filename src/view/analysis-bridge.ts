@@ -40,7 +40,7 @@ export function fromRank(r: RankResult, wilson: StatisticsView): AnalysisView {
     }
     for (const a of c.against.slice(0, 3)) why.push(`Against it: ${a.h} ${a.k} ${a.l} has I/\u03c3 ${a.i_over_sigma.toFixed(1)} although ${a.condition} forbids it.`);
     const cls = classes.get(c.class_id);
-    if (cls && cls.members.length > 1) why.push(`Absences cannot tell it from: ${cls.members.filter((m) => m !== c.hm).slice(0, 6).join(', ')}.`);
+    if (cls && cls.members.length > 1) why.push(`The intensities cannot tell it from ${cls.members.filter((m) => m !== c.hm).slice(0, 6).join(', ')}: the bar is the probability of that group of settings together.`);
     if (c.change_of_basis) why.push(`Non-standard setting of No. ${c.number} (standard by ${c.change_of_basis}).`);
     const rules = c.conditions.map((k) => byText.get(k.text)).filter((x): x is Rule => x !== undefined);
     return { number: c.number, hm: c.hm, hall: c.hall, probability: c.probability, explanation: why, rules, centrosymmetric: c.centrosymmetric, sohncke: c.sohncke };

@@ -29,13 +29,19 @@ describe('lacuna rank (command contract, conventions.md section 1)', () => {
     for (const k of ['input', 'cell', 'laue', 'statistics', 'conditions', 'candidates']) expect(j).toHaveProperty(k);
     for (const cond of j.conditions)
       for (const k of ['text', 'zone', 'coeffs', 'modulus', 'n', 'mean_i_over_sigma', 'n_strong', 'probability_absent']) expect(cond).toHaveProperty(k);
-    // ordered by class probability, then by the candidate's own probability within a class
-    const cp = j.candidates.map((x: { class_probability: number }) => x.class_probability);
-    for (let q = 1; q < cp.length; q++) expect(cp[q]).toBeLessThanOrEqual(cp[q - 1]);
+    // sorted by probability (that of the candidate's indistinguishable class), then by the
+    // setting's own share within a class
     const p = j.candidates.map((x: { probability: number }) => x.probability);
-    for (let q = 1; q < p.length; q++) if (j.candidates[q].class_id === j.candidates[q - 1].class_id) expect(p[q]).toBeLessThanOrEqual(p[q - 1]);
+    for (let q = 1; q < p.length; q++) expect(p[q]).toBeLessThanOrEqual(p[q - 1]);
+    const sp = j.candidates.map((x: { setting_probability: number }) => x.setting_probability);
+    for (let q = 1; q < sp.length; q++) if (j.candidates[q].class_id === j.candidates[q - 1].class_id) expect(sp[q]).toBeLessThanOrEqual(sp[q - 1]);
     for (const k of ['number', 'hm', 'hall', 'probability']) expect(j.candidates[0]).toHaveProperty(k);
-    expect(Math.abs(p.reduce((a: number, b: number) => a + b, 0) - 1)).toBeLessThan(0.01);
+    // the settings' own shares add up to one; members of one class share the class probability
+    expect(Math.abs(sp.reduce((a: number, b: number) => a + b, 0) - 1)).toBeLessThan(0.01);
+    for (const cl of j.classes) {
+      const members = j.candidates.filter((x: { class_id: number }) => x.class_id === cl.id);
+      for (const m of members) expect(m.probability).toBeCloseTo(cl.probability, 4);
+    }
   });
   it('text output shows N candidates, the condition table and the caution', async () => {
     const c = capture();

@@ -26,7 +26,7 @@ describe('real data sets (COD)', () => {
     expect(a.log_odds).toBeLessThan(0);
     expect(v.absences_removed).toBe(true);
     expect(v.warnings.join(' ')).toMatch(/pseudo-symmetry/);
-    for (const c of v.candidates) if (c.class_id !== 0) expect(c.class_probability).toBeLessThanOrEqual(0.9);
+    for (const c of v.candidates) if (c.class_id !== 0) expect(c.probability).toBeLessThanOrEqual(0.9);
   });
   it('cod-2014121: P c a 21 first, its centrosymmetric partner with the same absences second, no confident wrong answer', () => {
     const r = rankSpaceGroups(load('cod-2014121.cif'));

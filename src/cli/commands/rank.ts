@@ -46,16 +46,19 @@ export function rankText(r: RankResult, top: number): string {
     (r.input.completeness !== null ? `, completeness ~${(100 * r.input.completeness).toFixed(0)} %` : ''));
   L.push('');
   L.push('Most probable settings');
-  L.push('  rank  group                 No.   probability  class  centro  evidence (nats: Laue / absences / unexplained missing classes / centric)');
+  L.push('  rank  group                 No.   probability* class  centro  evidence (nats: Laue / absences / unexplained missing classes / centric)');
   r.candidates.slice(0, top).forEach((cd, j) => {
     L.push(
       `  ${String(j + 1).padStart(4)}  ${cd.hm.padEnd(20)} ${String(cd.number).padStart(4)}   ${pct(cd.probability).padStart(11)}  ${String(cd.class_id + 1).padStart(5)}  ${cd.centrosymmetric ? 'yes' : 'no '}     ` +
         `${f(cd.evidence.laue, 1)} / ${f(cd.evidence.absences, 1)} / ${f(cd.evidence.missing_classes, 1)} / ${f(cd.evidence.centric, 1)}`,
     );
   });
+  L.push('  * probability of the candidate\'s class: settings with the same class number give the same intensities');
+  L.push('    (same Laue class, absences and centricity), so the data can only decide between classes.');
   const best = r.candidates[0];
   L.push('');
-  L.push(`Best: ${best.hm} (No. ${best.number}), probability ${pct(best.probability)}; its class of indistinguishable settings ${pct(best.class_probability)}.`);
+  L.push(`Best: ${best.hm} (No. ${best.number}); probability of its class of indistinguishable settings ${pct(best.probability)}` +
+    (best.setting_probability < best.probability ? `, of this setting alone ${pct(best.setting_probability)}.` : '.'));
   if (best.change_of_basis) L.push(`  Non-standard setting; change of basis to the standard setting: ${best.change_of_basis}`);
   else if (!best.standard) L.push('  Non-standard setting (no simple change of basis to the standard setting was found).');
   const cls = r.classes[best.class_id];
