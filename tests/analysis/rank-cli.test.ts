@@ -10,16 +10,9 @@ import { realdata } from '../helpers/paths';
 import { parseChangeOfBasis, reindexTable } from '../../src/lattice';
 import { randomCellFor } from './rank-simulation';
 import { SeededRandom } from '../../src/model';
+import { captureCli } from '../helpers/capture-cli';
 
-function capture() {
-  let out = '';
-  let err = '';
-  return {
-    ctx: { out: (t: string) => { out += t; }, err: (t: string) => { err += t; }, interactive: false, cwd: process.cwd() },
-    get out() { return out; },
-    get err() { return err; },
-  };
-}
+const capture = () => captureCli();
 
 describe('lacuna rank (command contract, conventions.md section 1)', () => {
   it('--json prints one document with the contract keys, candidates highest first', async () => {

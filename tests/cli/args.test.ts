@@ -1,15 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../src/cli';
+import { captureCli } from '../helpers/capture-cli';
 
-function capture() {
-  let out = '';
-  let err = '';
-  return {
-    ctx: { out: (t: string) => { out += t; }, err: (t: string) => { err += t; }, interactive: false, cwd: process.cwd() },
-    get out() { return out; },
-    get err() { return err; },
-  };
-}
+const capture = () => captureCli();
 
 describe('lacuna command line', () => {
   it('rejects an unknown command with exit 2 and an error: line', async () => {

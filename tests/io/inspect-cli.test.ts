@@ -5,16 +5,9 @@ import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { runCli } from '../../src/cli';
 import { realdata } from '../helpers/paths';
+import { captureCli } from '../helpers/capture-cli';
 
-function capture(cwd = process.cwd()) {
-  let out = '';
-  let err = '';
-  return {
-    ctx: { out: (t: string) => { out += t; }, err: (t: string) => { err += t; }, interactive: false, cwd },
-    get out() { return out; },
-    get err() { return err; },
-  };
-}
+const capture = captureCli;
 async function inspect(args: string[], cwd?: string) {
   const c = capture(cwd);
   const code = await runCli(['inspect', ...args], c.ctx);

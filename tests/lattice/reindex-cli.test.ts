@@ -6,11 +6,9 @@ import { runCli } from '../../src/cli';
 import { readReflections } from '../../src/io';
 import { parseChangeOfBasis, reindexTable } from '../../src/lattice';
 import { realdata, REPO_ROOT } from '../helpers/paths';
+import { captureCli } from '../helpers/capture-cli';
 
-function capture(cwd = process.cwd()) {
-  const o = { out: '', err: '' };
-  return { o, ctx: { out: (t: string) => { o.out += t; }, err: (t: string) => { o.err += t; }, interactive: false, cwd } };
-}
+const capture = captureCli;
 
 function read(path: string) {
   const r = readReflections(new Uint8Array(readFileSync(path)), { source: path });
@@ -26,7 +24,7 @@ describe('lacuna reindex', () => {
     const out = join(dir, 'c-setting.cif');
     const c = capture();
     expect(await runCli(['reindex', input, '--transform', 'a,b,a+c', '--out', out], c.ctx)).toBe(0);
-    expect(c.o.out).toMatch(/wrote .*2551 reflections reindexed with a,b,a\+c \(det 1\)/);
+    expect(c.out).toMatch(/wrote .*2551 reflections reindexed with a,b,a\+c \(det 1\)/);
     const p = parseChangeOfBasis('a,b,a+c');
     if (!p.ok) throw p.error;
     const expected = reindexTable(read(input), p.value);
@@ -61,31 +59,31 @@ describe('lacuna reindex', () => {
     const before = readFileSync(copy, 'utf8');
     const c1 = capture(dir);
     expect(await runCli(['reindex', 'copy.cif', '--transform', 'b,c,a', '--out', './copy.cif'], c1.ctx)).toBe(2);
-    expect(c1.o.err).toMatch(/^error: .*never overwrites its input/);
+    expect(c1.err).toMatch(/^error: .*never overwrites its input/);
     expect(readFileSync(copy, 'utf8')).toBe(before);
     const c2 = capture();
     expect(await runCli(['reindex', input, '--transform', 'a,b,a+b', '--out', join(dir, 'x.cif')], c2.ctx)).toBe(2);
-    expect(c2.o.err).toMatch(/^error: --transform: .*singular/);
+    expect(c2.err).toMatch(/^error: --transform: .*singular/);
     expect(existsSync(join(dir, 'x.cif'))).toBe(false);
     const c3 = capture();
     expect(await runCli(['reindex', input, '--transform', '1/2a+1/2b,-1/2a+1/2b,c', '--out', join(dir, 'x.cif')], c3.ctx)).toBe(2);
-    expect(c3.o.err).toMatch(/non-integer indices/);
+    expect(c3.err).toMatch(/non-integer indices/);
     const c4 = capture();
     expect(await runCli(['reindex', input, '--out', join(dir, 'x.cif')], c4.ctx)).toBe(2);
-    expect(c4.o.err).toMatch(/needs --transform/);
+    expect(c4.err).toMatch(/needs --transform/);
   });
 
   it('warns on stderr when the hand changes (a,b,-a-c has determinant -1)', async () => {
     const c = capture();
     expect(await runCli(['reindex', input, '--transform', 'a,b,-a-c', '--out', join(dir, 'left.cif')], c.ctx)).toBe(0);
-    expect(c.o.err).toMatch(/^warning: .*left-handed/);
+    expect(c.err).toMatch(/^warning: .*left-handed/);
   });
 
   it('drops and counts non-integral rows only when asked', async () => {
     const c = capture();
     const code = await runCli(['reindex', input, '--transform', '1/2a+1/2b,-1/2a+1/2b,c', '--drop-nonintegral', '--out', join(dir, 'p.cif'), '--json'], c.ctx);
     expect(code).toBe(0);
-    const doc = JSON.parse(c.o.out);
+    const doc = JSON.parse(c.out);
     expect(doc.left_out).toBeGreaterThan(0);
     expect(doc.reflections_in).toBe(doc.reflections_out + doc.left_out);
     expect(doc.warnings.join()).toMatch(/left out/);

@@ -6,6 +6,7 @@ import { REPO_ROOT } from '../helpers/paths';
 import { runCli } from '../../src/cli';
 import { readReflections } from '../../src/io';
 import { findSetting, isSystematicallyAbsent, equivalentIndices, distinctRotations } from '../../src/symmetry';
+import { captureCli } from '../helpers/capture-cli';
 import {
   calculatedIntensities, compareModelWithData, parseModelCif, prepareModel, simulateData, type CrystalModel,
 } from '../../src/model';
@@ -21,10 +22,7 @@ const setting = findSetting('P 1 21/c 1')!;
 const tmp = mkdtempSync(join(tmpdir(), 'lacuna-sim-'));
 afterAll(() => rmSync(tmp, { recursive: true, force: true }));
 
-function capture() {
-  let out = '', err = '';
-  return { ctx: { out: (t: string) => { out += t; }, err: (t: string) => { err += t; }, interactive: false, cwd: tmp }, get out() { return out; }, get err() { return err; } };
-}
+const capture = () => captureCli(tmp);
 
 describe('simulated data', () => {
   it('is deterministic for a seed and differs between seeds', () => {

@@ -5,11 +5,9 @@ import { describe, expect, it } from 'vitest';
 import { DEFAULT_PROFILE, describeProfile, isObserved, parseProfile } from '../../src/profile';
 import { runCli } from '../../src/cli';
 import { REPO_ROOT } from '../helpers/paths';
+import { captureCli } from '../helpers/capture-cli';
 
-function capture(cwd = process.cwd()) {
-  const o = { out: '', err: '' };
-  return { o, ctx: { out: (t: string) => { o.out += t; }, err: (t: string) => { o.err += t; }, interactive: false, cwd } };
-}
+const capture = captureCli;
 
 const PROFILES = resolve(REPO_ROOT, 'public/profiles');
 
@@ -89,17 +87,17 @@ describe('--profile on the command line', () => {
     for (const argv of [['lattice', '--cell', '5,5,5,90,90,90'], ['groups', '--number', '14'], ['inspect', 'x.cif']]) {
       const c = capture(dir);
       expect(await runCli([...argv, '--profile', 'bad.json'], c.ctx), argv[0]).toBe(2);
-      expect(c.o.err, argv[0]).toBe('error: bad.json:3: lab profile: $.observed_i_over_sigma: expected a number (multiples of sigma(I)), got "three"\n');
+      expect(c.err, argv[0]).toBe('error: bad.json:3: lab profile: $.observed_i_over_sigma: expected a number (multiples of sigma(I)), got "three"\n');
     }
   });
   it('reports a missing profile file', async () => {
     const c = capture(dir);
     expect(await runCli(['lattice', '--cell', '5,5,5,90,90,90', '--profile=nope.json'], c.ctx)).toBe(2);
-    expect(c.o.err).toMatch(/^error: nope\.json: cannot read the lab profile: no such file/);
+    expect(c.err).toMatch(/^error: nope\.json: cannot read the lab profile: no such file/);
   });
   it('is listed in every command\'s help', async () => {
     const c = capture();
     expect(await runCli(['lattice', '--help'], c.ctx)).toBe(0);
-    expect(c.o.out).toMatch(/--profile FILE/);
+    expect(c.out).toMatch(/--profile FILE/);
   });
 });

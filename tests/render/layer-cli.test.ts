@@ -6,14 +6,9 @@ import { inflateSync } from 'node:zlib';
 import { runCli } from '../../src/cli';
 import { decodePng } from '../../shaders-free-render';
 import { REPO_ROOT, realdata } from '../helpers/paths';
+import { captureCli } from '../helpers/capture-cli';
 
-function capture() {
-  let out = '', err = '';
-  return {
-    ctx: { out: (t: string) => { out += t; }, err: (t: string) => { err += t; }, interactive: false, cwd: REPO_ROOT },
-    get out() { return out; }, get err() { return err; },
-  };
-}
+const capture = () => captureCli(REPO_ROOT);
 
 const DEMO = resolve(REPO_ROOT, 'public/demo/qm-101.cif');
 
