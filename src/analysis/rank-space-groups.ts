@@ -1,4 +1,4 @@
-import { fail, ok, type CellParams, type ReflectionTable, type Result } from '../core';
+import { fail, fillEstimatedSigmas, ok, SIGMA_ESTIMATE_RULE, type CellParams, type ReflectionTable, type Result } from '../core';
 import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis, findBravaisCandidates, HOLOHEDRY_ORDER, basisMatrix } from '../lattice';
 import { allSettings, changeBasisOp, opKey, type SpaceGroupSetting } from '../symmetry';
 import { absenceEvidence, compileForbids, conditionKey, MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT, type AbsenceEvidence, type ConditionEvidence, type ConditionLike } from './absence-evidence';
@@ -136,20 +136,14 @@ export const RANK_CAUTION =
 
 const MIN_REFLECTIONS = 20;
 
+/** Sigmas the analysis can use: the file's, or estimates where it gave none (or none valid). */
 function estimateSigmas(table: ReflectionTable): { table: ReflectionTable; estimated: boolean; patched: number } {
-  let bad = 0, sumAbs = 0;
-  for (let j = 0; j < table.n; j++) {
-    if (!(table.sigma[j] > 0) || !Number.isFinite(table.sigma[j])) bad++;
-    sumAbs += Math.abs(table.i[j]);
-  }
+  if (table.meta.sigmaEstimated) return { table, estimated: true, patched: 0 };
+  let bad = 0;
+  for (let j = 0; j < table.n; j++) if (!(table.sigma[j] > 0) || !Number.isFinite(table.sigma[j])) bad++;
   if (bad === 0) return { table, estimated: false, patched: 0 };
-  const meanAbs = sumAbs / Math.max(1, table.n);
-  const sigma = new Float32Array(table.n);
-  for (let j = 0; j < table.n; j++) {
-    const s = table.sigma[j];
-    // counting-statistics-like guess: 5 % of I plus 2 % of the mean intensity (common practice)
-    sigma[j] = s > 0 && Number.isFinite(s) ? s : 0.05 * Math.abs(table.i[j]) + 0.02 * meanAbs;
-  }
+  const sigma = Float32Array.from(table.sigma);
+  fillEstimatedSigmas(table.i, sigma, table.n, true);
   return { table: { ...table, sigma }, estimated: bad === table.n, patched: bad };
 }
 
@@ -289,7 +283,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   // --- sigmas, merging
   const est = estimateSigmas(input);
   let table = est.table;
-  if (est.estimated) warnings.push('the file gives no standard uncertainties: they were estimated (5 % of I plus 2 % of the mean), so every probability below is less reliable');
+  if (est.estimated) warnings.push(`the file gives no standard uncertainties: they were estimated (${SIGMA_ESTIMATE_RULE}), so the absence probabilities (and every probability below) are less reliable`);
   else if (est.patched) warnings.push(`${est.patched} reflections had a zero or missing sigma; an estimate was used for them`);
   let index = new HklIndex(table);
   let rInt: number | null = null;

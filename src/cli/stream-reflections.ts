@@ -1,5 +1,5 @@
 import { closeSync, openSync, readSync } from 'node:fs';
-import { fail, MAX_REJECTED_EXAMPLES, ReflectionTableBuilder, type ReflectionMeta, type ReflectionTable, type Result } from '../core';
+import { fail, fillEstimatedSigmas, MAX_REJECTED_EXAMPLES, ReflectionTableBuilder, type ReflectionMeta, type ReflectionTable, type Result } from '../core';
 import { detectReflectionFormat, isGzip, readReflections, type ReadReflectionsOptions } from '../io';
 
 /**
@@ -167,7 +167,10 @@ export function readReflectionsInChunks(path: string, size: number, opts: ReadRe
       carry = filled - cut;
       buf.copyWithin(rowsStart, cut, filled);
     }
-    return { ok: true, value: builder!.finish(meta!) };
+    const table = builder!.finish(meta!);
+    // estimated sigmas depend on the mean |I| of the whole file, not of one chunk
+    if (meta!.sigmaEstimated) fillEstimatedSigmas(table.i, table.sigma, table.n, false);
+    return { ok: true, value: table };
   } catch (e) {
     return fail(`cannot read the file: ${(e as Error).message}`, { file: opts.source });
   } finally {

@@ -40,6 +40,8 @@ export interface ReflectionMeta {
   origin: IntensityOrigin;
   /** True when the rows are individual observations (unmerged, e.g. _diffrn_refln). */
   unmerged: boolean;
+  /** True when the file gave no sigma column and every sigma is the estimate of `fillEstimatedSigmas`. */
+  sigmaEstimated?: boolean;
   /** Data rows seen in the file; equals n + rejected count. */
   rowsInFile: number;
   /** Rejected rows: the first few with their line, and counts per reason. */
@@ -69,6 +71,32 @@ export function recordRejection(meta: ReflectionMeta, line: number, reason: stri
   meta.rejectedCount++;
   meta.rejectedByReason[reason] = (meta.rejectedByReason[reason] ?? 0) + 1;
   if (meta.rejectedExamples.length < MAX_REJECTED_EXAMPLES) meta.rejectedExamples.push({ line, reason });
+}
+
+/** How `fillEstimatedSigmas` guesses a missing sigma, in words for warnings. */
+export const SIGMA_ESTIMATE_RULE = 'sigma(I) = 5 % of |I| plus 2 % of the mean |I| (common practice)';
+
+/**
+ * Put an estimate into sigma[j] for j < n: every row when `onlyInvalid` is false,
+ * else only rows whose sigma is not a finite number > 0. Returns how many were filled.
+ * The guess (see SIGMA_ESTIMATE_RULE) is a rough error model, a proportional part plus a
+ * floor for weak reflections; it is unchanged when all intensities are scaled, so I/sigma
+ * does not depend on the arbitrary scale of the file. The analysis rescales sigmas by a
+ * factor estimated from the data anyway. Sigma 1 where the estimate is 0 (all I zero).
+ */
+export function fillEstimatedSigmas(i: Float32Array, sigma: Float32Array, n: number, onlyInvalid: boolean): number {
+  let sumAbs = 0;
+  for (let j = 0; j < n; j++) sumAbs += Math.abs(i[j]);
+  const floor = (0.02 * sumAbs) / Math.max(1, n);
+  let filled = 0;
+  for (let j = 0; j < n; j++) {
+    const s = sigma[j];
+    if (onlyInvalid && s > 0 && Number.isFinite(s)) continue;
+    const e = Math.fround(0.05 * Math.abs(i[j]) + floor);
+    sigma[j] = e > 0 && Number.isFinite(e) ? e : 1;
+    filled++;
+  }
+  return filled;
 }
 
 /**

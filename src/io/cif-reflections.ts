@@ -348,7 +348,7 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
       chosen = cur;
       unmerged = plan.unmerged;
       meta.origin = plan.origin;
-      sink = new RowSink(meta, plan.origin === 'amplitude');
+      sink = new RowSink(meta, plan.origin === 'amplitude', undefined, plan.hasSigma);
       const e = readLoopRows(sc, tags.length, plan.roles, sink);
       if (e) return err(e);
     } else {
@@ -417,5 +417,5 @@ export function readCifReflections(bytes: Uint8Array, start: number, opts: ReadR
       meta.warnings.push(`--cell replaces the cell in the file (${f.a}, ${f.b}, ${f.c}, ${f.alpha}, ${f.beta}, ${f.gamma})`);
     }
   }
-  return ok(sink.builder.finish(meta));
+  return ok(sink.finish());
 }

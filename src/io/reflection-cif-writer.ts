@@ -43,6 +43,7 @@ export function writeReflectionCif(table: ReflectionTable, opts: WriteReflection
   const m = table.meta;
   const out: string[] = ['#\\#CIF_1.1', commentLine('reflection data written by Lacuna'), commentLine(`from: ${m.source}`)];
   out.push(commentLine('intensities on the F^2 scale' + (m.origin === 'amplitude' ? ', squared from amplitudes F: I = F^2, sigma(I) = 2|F| sigma(F)' : '')));
+  if (m.sigmaEstimated) out.push(commentLine('the source gave no sigmas: no sigma column is written (a reader estimates them again)'));
   for (const c of opts.comments ?? []) out.push(commentLine(c));
   out.push(`data_${blockNameOf(opts.blockName ?? m.block ?? 'lacuna')}`);
   if (m.cell) {
@@ -55,8 +56,14 @@ export function writeReflectionCif(table: ReflectionTable, opts: WriteReflection
   if (m.wavelength !== undefined) out.push(`_diffrn_radiation_wavelength ${m.wavelength}`);
   const cat = m.unmerged ? '_diffrn_refln' : '_refln';
   out.push('loop_', `${cat}_index_h`, `${cat}_index_k`, `${cat}_index_l`);
-  out.push(m.unmerged ? '_diffrn_refln_intensity_net' : '_refln_F_squared_meas', m.unmerged ? '_diffrn_refln_intensity_u' : '_refln_F_squared_sigma');
+  out.push(m.unmerged ? '_diffrn_refln_intensity_net' : '_refln_F_squared_meas');
   const { h, k, l, i, sigma } = table;
-  for (let j = 0; j < table.n; j++) out.push(`${h[j]} ${k[j]} ${l[j]} ${formatFloat32(i[j])} ${formatFloat32(sigma[j])}`);
+  // estimated sigmas are not measurements: leave them out rather than pass them off as measured
+  if (m.sigmaEstimated) {
+    for (let j = 0; j < table.n; j++) out.push(`${h[j]} ${k[j]} ${l[j]} ${formatFloat32(i[j])}`);
+  } else {
+    out.push(m.unmerged ? '_diffrn_refln_intensity_u' : '_refln_F_squared_sigma');
+    for (let j = 0; j < table.n; j++) out.push(`${h[j]} ${k[j]} ${l[j]} ${formatFloat32(i[j])} ${formatFloat32(sigma[j])}`);
+  }
   return out.join('\n') + '\n';
 }

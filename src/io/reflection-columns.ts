@@ -19,7 +19,9 @@ export interface ColumnPlan {
   readonly origin: IntensityOrigin;
   /** True for individual observations (_diffrn_refln). */
   readonly unmerged: boolean;
-  /** Human-readable names of the five chosen columns, for messages. */
+  /** False when the file has values but no sigma column: the reader then fills estimates. */
+  readonly hasSigma: boolean;
+  /** Human-readable names of the chosen columns (h, k, l, value and sigma when there is one), for messages. */
   readonly chosen: string[];
 }
 
@@ -53,22 +55,24 @@ export function isReflectionLoop(tags: readonly string[]): boolean {
 
 /**
  * Plan the columns of a CIF reflection loop. `override` (from --columns) names
- * five tags in the order h, k, l, value, sigma. Returns an error message string
+ * five tags in the order h, k, l, value, sigma, or four (no sigma). A value column
+ * without its sigma is accepted (`hasSigma` false). Returns an error message string
  * when the loop lacks what is needed.
  */
 export function planCifColumns(tags: readonly string[], override?: readonly string[]): ColumnPlan | string {
   const roles = new Int8Array(tags.length);
   if (override) {
-    if (override.length !== 5) return `--columns for a CIF file names five tags: h, k, l, value, sigma (got ${override.length})`;
+    if (override.length !== 5 && override.length !== 4)
+      return `--columns for a CIF file names five tags: h, k, l, value, sigma (or four when there is no sigma; got ${override.length})`;
     const want = override.map(normaliseTag);
-    for (let r = 0; r < 5; r++) {
+    for (let r = 0; r < want.length; r++) {
       const j = tags.indexOf(want[r]);
       if (j < 0) return `tag '${override[r]}' from --columns is not in the reflection loop`;
       roles[j] = r + 1;
     }
     const v = want[3];
     const origin: IntensityOrigin = /(^|_)f(_meas)?(_au)?$/.test(v) ? 'amplitude' : 'intensity';
-    return { roles, origin, unmerged: v.startsWith('_diffrn_refln'), chosen: [...override] };
+    return { roles, origin, unmerged: v.startsWith('_diffrn_refln'), hasSigma: want.length === 5, chosen: [...override] };
   }
   for (const cat of CATEGORIES) {
     const hkl = ['h', 'k', 'l'].map((x) => tags.indexOf(cat.prefix + x));
@@ -77,13 +81,15 @@ export function planCifColumns(tags: readonly string[], override?: readonly stri
       const jv = tags.indexOf(pair.value);
       if (jv < 0) continue;
       const sigmaTag = pair.sigma.find((s) => tags.includes(s));
-      if (sigmaTag === undefined)
-        return `the reflection loop has ${pair.value} but no sigma column (${pair.sigma.join(' or ')})`;
       roles[hkl[0]] = ROLE_H; roles[hkl[1]] = ROLE_K; roles[hkl[2]] = ROLE_L;
-      roles[jv] = ROLE_VALUE; roles[tags.indexOf(sigmaTag)] = ROLE_SIGMA;
-      return { roles, origin: pair.origin, unmerged: cat.unmerged, chosen: [...hkl.map((j) => tags[j]), pair.value, sigmaTag] };
+      roles[jv] = ROLE_VALUE;
+      // no sigma column: the rows are kept and the reader fills estimated sigmas (with a warning)
+      if (sigmaTag === undefined)
+        return { roles, origin: pair.origin, unmerged: cat.unmerged, hasSigma: false, chosen: [...hkl.map((j) => tags[j]), pair.value] };
+      roles[tags.indexOf(sigmaTag)] = ROLE_SIGMA;
+      return { roles, origin: pair.origin, unmerged: cat.unmerged, hasSigma: true, chosen: [...hkl.map((j) => tags[j]), pair.value, sigmaTag] };
     }
-    return `the reflection loop has indices but no measured values with sigmas (looked for ${cat.pairs.map((p) => p.value).join(', ')}; the loop has ${tags.join(', ')})`;
+    return `the reflection loop has indices but no measured values (looked for ${cat.pairs.map((p) => p.value).join(', ')}; the loop has ${tags.join(', ')})`;
   }
   return 'no loop with _refln_index_h/_k/_l or _diffrn_refln_index_h/_k/_l';
 }
@@ -109,8 +115,9 @@ function aliasKey(name: string): string {
 
 /**
  * Plan the columns of delimited text from its header names (or --columns).
- * Unknown names are skipped columns. Returns an error message string when a role is
- * missing or given twice, or when intensities and amplitudes are mixed.
+ * Unknown names are skipped columns. Returns an error message string when h, k, l or the
+ * value is missing, a role is given twice, or intensities and amplitudes are mixed.
+ * A missing sigma column is allowed (`hasSigma` false).
  */
 export function planTextColumns(names: readonly string[]): ColumnPlan | string {
   const roles = new Int8Array(names.length);
@@ -133,9 +140,10 @@ export function planTextColumns(names: readonly string[]): ColumnPlan | string {
   }
   if (amplitude && intensity) return 'the columns mix intensities (I, sigI) and amplitudes (F, sigF); name one pair';
   const missing = [
-    [ROLE_H, 'h'], [ROLE_K, 'k'], [ROLE_L, 'l'], [ROLE_VALUE, 'I (or F)'], [ROLE_SIGMA, 'sigI (or sigF)'],
+    [ROLE_H, 'h'], [ROLE_K, 'k'], [ROLE_L, 'l'], [ROLE_VALUE, 'I (or F)'],
   ].filter(([r]) => !seen.has(r as number)).map(([, n]) => n);
   if (missing.length) return `no column named ${missing.join(', ')} (columns: ${names.join(' ')})`;
-  const chosen = [ROLE_H, ROLE_K, ROLE_L, ROLE_VALUE, ROLE_SIGMA].map((r) => seen.get(r)!);
-  return { roles, origin: amplitude ? 'amplitude' : 'intensity', unmerged: false, chosen };
+  const hasSigma = seen.has(ROLE_SIGMA);
+  const chosen = [ROLE_H, ROLE_K, ROLE_L, ROLE_VALUE, ...(hasSigma ? [ROLE_SIGMA] : [])].map((r) => seen.get(r)!);
+  return { roles, origin: amplitude ? 'amplitude' : 'intensity', unmerged: false, hasSigma, chosen };
 }

@@ -26,6 +26,8 @@ export interface ReflectionSummary {
   indexRange?: { h: [number, number]; k: [number, number]; l: [number, number] };
   origin: 'intensity' | 'amplitude';
   unmerged: boolean;
+  /** True when the file had no sigma column and the sigmas are estimates. */
+  sigmaEstimated: boolean;
   warnings: string[];
 }
 
@@ -102,6 +104,7 @@ export function summarizeReflections(t: ReflectionTable): ReflectionSummary {
     wavelength: m.wavelength,
     origin: m.origin,
     unmerged: m.unmerged,
+    sigmaEstimated: m.sigmaEstimated === true,
     warnings,
   };
   s.multiplicity = s.unique > 0 ? n / s.unique : 0;

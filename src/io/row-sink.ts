@@ -1,6 +1,6 @@
 import { NUMBER_BAD, NUMBER_OK, numberScan, parseByteNumber } from './byte-number';
 import { ROLE_H, ROLE_K, ROLE_L, ROLE_SIGMA, ROLE_VALUE } from './reflection-columns';
-import { ReflectionTableBuilder, recordRejection, type ReflectionMeta } from '../core';
+import { fillEstimatedSigmas, ReflectionTableBuilder, recordRejection, SIGMA_ESTIMATE_RULE, type ReflectionMeta, type ReflectionTable } from '../core';
 
 /**
  * Where readers put rows: checks each row, converts amplitudes, and either
@@ -23,6 +23,9 @@ export const REJECT_TOO_MANY = 'more columns than the header names';
 export const AMPLITUDE_WARNING =
   'the file gives amplitudes F: converted to intensities with I = F^2, sigma(I) = 2|F| sigma(F) (common practice)';
 
+export const NO_SIGMA_WARNING =
+  `the file has no sigma column: every row was kept and sigmas were estimated, ${SIGMA_ESTIMATE_RULE}; I/sigma figures and anything judged against sigma (absences above all) are less reliable`;
+
 /** Per-row field state collected by a reader before calling `add`. */
 export const FIELD_OK = 0;
 export const FIELD_MISSING = 1;
@@ -34,8 +37,11 @@ const MAX_INDEX = 32767;
 export class RowSink {
   readonly builder: ReflectionTableBuilder;
   rows = 0;
-  constructor(readonly meta: ReflectionMeta, readonly amplitude: boolean, initialCapacity?: number) {
+  /** `hasSigma` false: the file has no sigma column; rows carry a placeholder and finish() fills estimates. */
+  constructor(readonly meta: ReflectionMeta, readonly amplitude: boolean, initialCapacity?: number, readonly hasSigma = true) {
     this.builder = new ReflectionTableBuilder(initialCapacity);
+    // placeholder that passes the sigma checks; never overwritten because no field has ROLE_SIGMA
+    if (!hasSigma) this.row[ROLE_SIGMA] = 1;
   }
 
   // the row being collected, indexed by ROLE_*
@@ -79,6 +85,17 @@ export class RowSink {
     const r = this.row;
     this.add(r[ROLE_H], r[ROLE_K], r[ROLE_L], r[ROLE_VALUE], r[ROLE_SIGMA], this.status, line);
     this.status = FIELD_OK;
+  }
+
+  /** The table of accepted rows; without a sigma column, the sigmas are estimated here and meta says so. */
+  finish(): ReflectionTable {
+    const t = this.builder.finish(this.meta);
+    if (!this.hasSigma) {
+      fillEstimatedSigmas(t.i, t.sigma, t.n, false);
+      this.meta.sigmaEstimated = true;
+      this.meta.warnings.push(NO_SIGMA_WARNING);
+    }
+    return t;
   }
 
   reject(line: number, reason: string): void {

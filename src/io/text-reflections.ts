@@ -108,7 +108,7 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
       needed = roles.length;
       while (needed > 0 && roles[needed - 1] === 0) needed--;
       meta.origin = plan.origin;
-      sink = new RowSink(meta, plan.origin === 'amplitude', Math.max(1024, ((n - pos) / 24) | 0));
+      sink = new RowSink(meta, plan.origin === 'amplitude', Math.max(1024, ((n - pos) / 24) | 0), plan.hasSigma);
       if (!numeric) continue; // that line was the header
     }
     const count = splitFields(b, s, e, delim, starts, ends);
@@ -126,5 +126,5 @@ export function readTextReflections(bytes: Uint8Array, start: number, opts: Read
     if (!r.ok) return r;
     meta.cell = { ...opts.cell };
   }
-  return ok(sink.builder.finish(meta));
+  return ok(sink.finish());
 }

@@ -56,11 +56,11 @@ const REFUSED: { file: string; why: string; message: string }[] = [
   },
   {
     file: 'unknown-column.txt', why: 'text header with unknown names for the intensity and its sigma',
-    message: 'error: unknown-column.txt:1:1: no column named I (or F), sigI (or sigF) (columns: h k l intens esd). The first line must name the columns (e.g. "h k l I sigI"), or give --columns h,k,l,i,sigi.',
+    message: 'error: unknown-column.txt:1:1: no column named I (or F) (columns: h k l intens esd). The first line must name the columns (e.g. "h k l I sigI"), or give --columns h,k,l,i,sigi.',
   },
   {
     file: 'unknown-column.cif', why: 'CIF loop whose value and sigma tags are not in the dictionary',
-    message: 'error: unknown-column.cif:2:1: the reflection loop has indices but no measured values with sigmas (looked for _refln_f_squared_meas, _refln_intensity_meas, _refln_f_meas_au, _refln_f_meas; the loop has _refln_index_h, _refln_index_k, _refln_index_l, _refln_intensity_obs, _refln_intensity_esd). Name the five columns to use with --columns h,k,l,value,sigma (tags of this loop).',
+    message: 'error: unknown-column.cif:2:1: the reflection loop has indices but no measured values (looked for _refln_f_squared_meas, _refln_intensity_meas, _refln_f_meas_au, _refln_f_meas; the loop has _refln_index_h, _refln_index_k, _refln_index_l, _refln_intensity_obs, _refln_intensity_esd). Name the five columns to use with --columns h,k,l,value,sigma (tags of this loop).',
   },
   {
     file: 'truncated.cif.gz', why: 'gzip file cut off after 150 bytes',

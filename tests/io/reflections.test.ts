@@ -160,8 +160,8 @@ describe('CIF reflection loops', () => {
     e = readError(['data_e', 'loop_', '_refln_index_h', '_refln_index_k', '_refln_index_l', '_refln_intensity_meas', '_refln_intensity_sigma', "1 2 3 'x 5"].join('\n'));
     expect(e.message).toMatch(/unterminated quoted string/);
     expect(e.location).toMatchObject({ line: 8, column: 7 });
-    e = readError(['data_e', 'loop_', '_refln_index_h', '_refln_index_k', '_refln_index_l', '_refln_intensity_meas', '1 2 3 4'].join('\n'));
-    expect(e.message).toMatch(/has _refln_intensity_meas but no sigma column/);
+    e = readError(['data_e', 'loop_', '_refln_index_h', '_refln_index_k', '_refln_index_l', '_refln_intensity_obs', '1 2 3 4'].join('\n'));
+    expect(e.message).toMatch(/has indices but no measured values/);
     expect(e.location.line).toBe(2);
     e = readError('data_e\n_cell_length_a 5\n');
     expect(e.message).toMatch(/no reflection loop found \(data blocks: e\)/);
@@ -239,7 +239,7 @@ describe('delimited text', () => {
     expect(e.message).toMatch(/no header row/);
     expect(e.location).toMatchObject({ file: 'test', line: 1 });
     e = readError('x y z\n1 2 3\n');
-    expect(e.message).toMatch(/no column named h, k, l, I \(or F\), sigI \(or sigF\)/);
+    expect(e.message).toMatch(/no column named h, k, l, I \(or F\) \(columns: x y z\)/);
     e = readError('h k l I sigI F\n');
     expect(e.message).toMatch(/mix intensities/);
     e = readError('h k l I I\n');

@@ -38,6 +38,7 @@ export function inspectJson(s: ReflectionSummary): Record<string, unknown> {
     index_range: s.indexRange ?? null,
     origin: s.origin,
     unmerged: s.unmerged,
+    sigma_estimated: s.sigmaEstimated,
     warnings: s.warnings,
   };
 }
@@ -70,7 +71,8 @@ export function inspectText(s: ReflectionSummary): string {
   if (s.dMin !== undefined && s.dMax !== undefined)
     rows.push(['resolution', `d ${fmt(s.dMax, 3)} to ${fmt(s.dMin, 3)} A (sin(theta)/lambda up to ${fmt(0.5 / s.dMin, 4)} 1/A)`]);
   else rows.push(['resolution', 'unknown (no cell)']);
-  if (s.meanIOverSigma !== undefined) rows.push(['mean I/sigma', fmt(s.meanIOverSigma, 2)]);
+  if (s.sigmaEstimated) rows.push(['sigmas', 'not in the file: estimated (see warnings)']);
+  if (s.meanIOverSigma !== undefined) rows.push(['mean I/sigma', fmt(s.meanIOverSigma, 2) + (s.sigmaEstimated ? ' (from estimated sigmas)' : '')]);
   if (s.fractionNegative !== undefined) rows.push(['negative I', `${fmt(100 * s.fractionNegative, 1)} %`]);
   const w = Math.max(...rows.map((r) => r[0].length)) + 2;
   const out = rows.map(([k, v]) => (k ? k.padEnd(w) : ' '.repeat(w + 2)) + v);
