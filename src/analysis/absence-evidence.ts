@@ -184,32 +184,44 @@ export function absenceEvidence(
   const strongMin = new Float64Array(nc).fill(-Infinity);
   const perReflection = new Float64Array(n).fill(NaN);
   // Patterns are keyed by a number: the bit set of the conditions (exact up to 52 conditions),
-  // else by text.
+  // else by a hash of the bit set in 32-bit words, with the words compared on a hit (cubic
+  // cells have about 60 conditions; no string per reflection).
   const numericKeys = nc <= 52;
   const pow2 = Float64Array.from({ length: Math.min(nc, 53) }, (_, c) => 2 ** c);
   const patternByNumber = new Map<number, { ids: number[]; logOdds: number; count: number }>();
-  const patternByText = new Map<string, { ids: number[]; logOdds: number; count: number }>();
+  type WordPattern = { words: Uint32Array; p: { ids: number[]; logOdds: number; count: number } };
+  const patternByHash = new Map<number, WordPattern[]>();
+  const patternsInOrder: { ids: number[]; logOdds: number; count: number }[] = [];
+  const words = new Uint32Array(numericKeys ? 0 : Math.ceil(nc / 32));
   const zoneFlat = zoneRows.map((rows) => Int32Array.from(rows.flat()));
   const condsOfZoneFlat = condsOfZone.map((c) => Int32Array.from(c));
   const coeffFlat = Int32Array.from(coeffs.flat());
   const modFlat = Int32Array.from(moduli);
-  const ids: number[] = [];
+  // m - 1 for a power-of-two modulus (x & (m - 1) is 0 exactly when m divides x, negative x too), else -1
+  const modMask = Int32Array.from(moduli, (md) => ((md & (md - 1)) === 0 ? md - 1 : -1));
+  // conditions forbidding the current reflection: a scratch array and its count (no allocation)
+  const ids = new Int32Array(nc);
+  let nIds = 0;
   // Reflections that only lattice-centring conditions (no zone) forbid can number half a
   // million; beyond 50,000 of them the log-odds is evaluated for every m-th one and counted
   // m times (the counts and I/sigma figures stay exact; the sums are far beyond any doubt).
   const zoneless = zoneFlat.map((r) => r.length === 0);
+  // the zones a general reflection can lie in: only those without rows (the whole lattice)
+  const zonelessZones = Int32Array.from(zoneless.flatMap((x, z) => (x ? [z] : [])));
   const m = Math.max(1, Math.floor(n / stride / 50_000));
   let zonelessSeen = 0;
 
   for (let j = 0; j < n; j += stride) {
     const h = table.h[j], k = table.k[j], l = table.l[j];
-    ids.length = 0;
+    nIds = 0;
     let key = 0;
     let onlyZoneless = true;
     // a reflection fixed by no rotation lies in no zone but the whole lattice
     const isGeneral = general !== undefined && general[j] === 1;
-    for (let z = 0; z < zoneFlat.length; z++) {
-      if (isGeneral && !zoneless[z]) continue;
+    const nz = isGeneral ? zonelessZones.length : zoneFlat.length;
+    for (let w = 0; w < words.length; w++) words[w] = 0;
+    for (let zi = 0; zi < nz; zi++) {
+      const z = isGeneral ? zonelessZones[zi] : zi;
       const rows = zoneFlat[z];
       let inZone = true;
       for (let e = 0; e < rows.length; e += 3) {
@@ -220,14 +232,16 @@ export function absenceEvidence(
       const cz = condsOfZoneFlat[z];
       for (let q = 0; q < cz.length; q++) {
         const c = cz[q];
-        if ((coeffFlat[3 * c] * h + coeffFlat[3 * c + 1] * k + coeffFlat[3 * c + 2] * l) % modFlat[c] !== 0) {
-          ids.push(c);
+        const v = coeffFlat[3 * c] * h + coeffFlat[3 * c + 1] * k + coeffFlat[3 * c + 2] * l;
+        if (modMask[c] >= 0 ? (v & modMask[c]) !== 0 : v % modFlat[c] !== 0) {
+          ids[nIds++] = c;
           if (!zoneless[z]) onlyZoneless = false;
           if (numericKeys) key += pow2[c];
+          else words[c >>> 5] |= 1 << (c & 31);
         }
       }
     }
-    if (ids.length === 0) continue;
+    if (nIds === 0) continue;
     const sig = table.sigma[j];
     const I = table.i[j];
     let lo = 0, weight = 1;
@@ -237,7 +251,7 @@ export function absenceEvidence(
       if (onlyZoneless) weight = m;
     }
     const ios = sig > 0 ? I / sig : 0;
-    for (let q = 0; q < ids.length; q++) {
+    for (let q = 0; q < nIds; q++) {
       const c = ids[q];
       nForb[c]++;
       sumIs[c] += ios;
@@ -249,12 +263,25 @@ export function absenceEvidence(
     let p;
     if (numericKeys) {
       p = patternByNumber.get(key);
-      if (!p) { p = { ids: ids.slice().sort((a, b) => a - b), logOdds: 0, count: 0 }; patternByNumber.set(key, p); }
+      if (!p) { p = { ids: sortedIds(ids, nIds), logOdds: 0, count: 0 }; patternByNumber.set(key, p); }
     } else {
-      ids.sort((a, b) => a - b);
-      const text = ids.join(',');
-      p = patternByText.get(text);
-      if (!p) { p = { ids: ids.slice(), logOdds: 0, count: 0 }; patternByText.set(text, p); }
+      let hash = 0;
+      for (let w = 0; w < words.length; w++) hash = (Math.imul(hash, 0x9e3779b1) ^ words[w]) >>> 0;
+      let bucket = patternByHash.get(hash);
+      if (!bucket) { bucket = []; patternByHash.set(hash, bucket); }
+      let found: WordPattern | undefined;
+      for (let b = 0; b < bucket.length && !found; b++) {
+        const bw = bucket[b].words;
+        let same = true;
+        for (let w = 0; w < words.length; w++) if (bw[w] !== words[w]) { same = false; break; }
+        if (same) found = bucket[b];
+      }
+      if (!found) {
+        found = { words: words.slice(), p: { ids: sortedIds(ids, nIds), logOdds: 0, count: 0 } };
+        bucket.push(found);
+        patternsInOrder.push(found.p);
+      }
+      p = found.p;
     }
     p.logOdds += weight * lo;
     p.count++;
@@ -279,7 +306,12 @@ export function absenceEvidence(
       strongest: strongest[j],
     };
   });
-  return { conditions: out, indexOf, patterns: [...patternByNumber.values(), ...patternByText.values()], reflectionLogOdds: perReflection };
+  return { conditions: out, indexOf, patterns: [...patternByNumber.values(), ...patternsInOrder], reflectionLogOdds: perReflection };
+}
+
+/** The first `count` entries of `ids` as a sorted plain array. */
+function sortedIds(ids: Int32Array, count: number): number[] {
+  return Array.from(ids.subarray(0, count)).sort((a, b) => a - b);
 }
 
 /** Insert row j (with I/sigma v) into a list of at most ten rows, strongest first; returns the new entry threshold. */

@@ -70,6 +70,47 @@ export function distinctRotations(rotations: readonly ArrayLike<number>[]): numb
 }
 
 /**
+ * The reflections sampled for one rotation and their partners: row j, the partner row q
+ * (-1 when there is none to compare with) and whether R fixes h up to sign.
+ */
+interface RotationSample {
+  readonly j: Int32Array;
+  readonly q: Int32Array;
+  readonly fixed: Uint8Array;
+  readonly count: number;
+}
+
+/**
+ * Sampled pairs per rotation, kept between calls of `rotationAgreements` that share the table,
+ * the index, the rotations and `use` (only the normalisation and the sigma scale change), so
+ * the random index lookups are done once.
+ */
+export interface RotationPairCache {
+  samples?: RotationSample[];
+}
+
+function sampleRotation(table: ReflectionTable, r: readonly number[], index: HklIndex, stride: number, use?: Uint8Array): RotationSample {
+  const n = table.n;
+  const cap = Math.ceil(n / stride);
+  const J = new Int32Array(cap), Q = new Int32Array(cap), F = new Uint8Array(cap);
+  const involution = rotationOrder(r) === 2;
+  let count = 0;
+  for (let j = 0; j < n; j += stride) {
+    if (use && !use[j]) continue;
+    const h = table.h[j], k = table.k[j], l = table.l[j];
+    const h2 = h * r[0] + k * r[3] + l * r[6];
+    const k2 = h * r[1] + k * r[4] + l * r[7];
+    const l2 = h * r[2] + k * r[5] + l * r[8];
+    const q = index.findWithFriedel(h2, k2, l2);
+    J[count] = j;
+    Q[count] = q < 0 || q === j || (involution && q < j) || (use && !use[q]) ? -1 : q;
+    F[count] = (h2 === h && k2 === k && l2 === l) || (h2 === -h && k2 === -k && l2 === -l) ? 1 : 0;
+    count++;
+  }
+  return { j: J, q: Q, fixed: F, count };
+}
+
+/**
  * Agreement statistics per rotation.
  *
  * The correlation (shown to the user) compares normalised intensities E^2 clipped to [-2, 12];
@@ -77,30 +118,31 @@ export function distinctRotations(rotations: readonly ArrayLike<number>[]): numb
  * The evidence itself is a likelihood ratio per pair (see `pairLogOdds`), because a correlation
  * is dominated by the strong reflections and stays high under pseudo-symmetry, while the
  * differences measured against their errors do not. Each rotation's log-odds is limited to
- * +-30 nats.
+ * +-30 nats. Pass the same `cache` to calls that differ only in e2, sE, expected and k.
  */
 export function rotationAgreements(
   table: ReflectionTable, e2: Float64Array, sE: Float64Array, rotations: readonly number[][], index: HklIndex,
-  expected: Float64Array, k: number, use?: Uint8Array,
+  expected: Float64Array, k: number, use?: Uint8Array, cache: RotationPairCache = {},
 ): RotationAgreement[] {
   const n = table.n;
   // 20,000 reflections per rotation give correlations to +-0.01 and a log-odds far beyond its
   // +-30 limit; more would only cost time
   const stride = Math.max(1, Math.floor(n / 20_000));
-  return rotations.map((r) => {
-    const involution = rotationOrder(r) === 2;
-    let pairs = 0, distinct = 0;
+  if (!cache.samples || cache.samples.length !== rotations.length)
+    cache.samples = rotations.map((r) => sampleRotation(table, r, index, stride, use));
+  const samples = cache.samples;
+  const pairJ = new Int32Array(MAX_LIKELIHOOD_PAIRS), pairQ = new Int32Array(MAX_LIKELIHOOD_PAIRS);
+  return rotations.map((r, ri) => {
+    const { j: J, q: Q, fixed: F, count } = samples[ri];
+    let pairs = 0, distinct = 0, listed = 0;
     let sx = 0, sy = 0, sxx = 0, syy = 0, sxy = 0, sNoise = 0;
-    for (let j = 0; j < n; j += stride) {
-      if (use && !use[j]) continue;
-      const h = table.h[j], k = table.k[j], l = table.l[j];
-      const h2 = h * r[0] + k * r[3] + l * r[6];
-      const k2 = h * r[1] + k * r[4] + l * r[7];
-      const l2 = h * r[2] + k * r[5] + l * r[8];
-      if ((h2 === h && k2 === k && l2 === l) || (h2 === -h && k2 === -k && l2 === -l)) continue;
+    for (let s = 0; s < count; s++) {
+      const j = J[s], q = Q[s];
+      if (q >= 0 && listed < MAX_LIKELIHOOD_PAIRS) { pairJ[listed] = j; pairQ[listed] = q; listed++; }
+      // reflections the rotation fixes (up to sign) say nothing about it in the correlation
+      if (F[s]) continue;
       distinct++;
-      const q = index.findWithFriedel(h2, k2, l2);
-      if (q < 0 || q === j || (involution && q < j) || (use && !use[q])) continue;
+      if (q < 0) continue;
       const x = clamp(e2[j], -2, 12), y = clamp(e2[q], -2, 12);
       pairs++;
       sx += x; sy += y; sxx += x * x; syy += y * y; sxy += x * y;
@@ -115,7 +157,7 @@ export function rotationAgreements(
       ccExpected = v > 0 ? clamp((v - sNoise / pairs) / v, 0.2, 0.97) : 0.2;
     }
     const merged = pairs === 0 && distinct >= 20;
-    const logOdds = pairs >= 1 ? clamp(pairLogOddsSum(table, expected, k, r, index, stride, involution, use), -30, 30) : 0;
+    const logOdds = pairs >= 1 ? clamp(pairLogOddsSum(table, expected, k, pairJ, pairQ, listed), -30, 30) : 0;
     return { r, label: axisLabel(r), pairs, cc, ccExpected, distinct, merged, logOdds };
   });
 }
@@ -143,27 +185,25 @@ function logWilsonGauss(x: number, s: number, S: number): number {
   return -Math.log(S) - x / S + (s * s) / (2 * S * S) + logNormalCdf((x - (s * s) / S) / s);
 }
 
+/** 5,000 pairs put the likelihood sum far beyond its +-30 limit whenever the rotation is decided at all. */
+const MAX_LIKELIHOOD_PAIRS = 5_000;
+
 /**
- * Sum of pair log-odds over the pairs (h, hR) present. Errors: k sigma plus 3 % of the
- * intensity (a proportional error from absorption and scaling, common practice).
+ * Sum of pair log-odds over the listed pairs (rows pairJ[p], pairQ[p]) of h and hR. Errors:
+ * k sigma plus 3 % of the intensity (a proportional error from absorption and scaling,
+ * common practice).
  */
 function pairLogOddsSum(
-  table: ReflectionTable, expected: Float64Array, k: number, r: readonly number[], index: HklIndex, stride: number, involution: boolean,
-  use?: Uint8Array,
+  table: ReflectionTable, expected: Float64Array, k: number, pairJ: Int32Array, pairQ: Int32Array, count: number,
 ): number {
-  let sum = 0, pairs = 0;
-  // 5,000 pairs put the sum far beyond its +-30 limit whenever the rotation is decided at all
-  for (let j = 0; j < table.n && pairs < 5_000; j += stride) {
-    if (use && !use[j]) continue;
-    const h = table.h[j], kk = table.k[j], l = table.l[j];
-    const q = index.findWithFriedel(h * r[0] + kk * r[3] + l * r[6], h * r[1] + kk * r[4] + l * r[7], h * r[2] + kk * r[5] + l * r[8]);
-    if (q < 0 || q === j || (involution && q < j) || (use && !use[q])) continue;
+  let sum = 0;
+  for (let p = 0; p < count; p++) {
+    const j = pairJ[p], q = pairQ[p];
     const I1 = table.i[j], I2 = table.i[q];
     const e1 = Math.hypot(k * table.sigma[j], 0.03 * Math.max(I1, 0)) || 1e-6;
     const e2 = Math.hypot(k * table.sigma[q], 0.03 * Math.max(I2, 0)) || 1e-6;
     const S = Math.max(0.5 * (expected[j] + expected[q]), 1e-30);
     sum += pairLogOdds(I1, e1, I2, e2, S);
-    pairs++;
   }
   return sum;
 }

@@ -5,7 +5,7 @@ import { absenceEvidence, compileForbids, conditionKey, MISSING_CLASS_CAP, MISSI
 import { candidateSettings, DEFAULT_TOLERANCE, metricLogPenalty, type MetricTolerance } from './candidates';
 import { HklIndex } from './hkl-index';
 import { intensityStatistics, THEORY } from './intensity-statistics';
-import { distinctRotations, inverseRotation, MERGED_ROTATION_LOG_ODDS, rotationAgreements, rotationKeyText } from './laue-evidence';
+import { distinctRotations, inverseRotation, MERGED_ROTATION_LOG_ODDS, rotationAgreements, rotationKeyText, type RotationPairCache } from './laue-evidence';
 import { mergeIdentical } from './merge';
 import { buildShells, expectedIntensityColumn, wilsonPlot } from './normalisation';
 import { sigmaScaleFromNegatives, sigmaScaleFromPairs } from './sigma-scale';
@@ -382,16 +382,19 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   let abs = absenceEvidence(table, expected, condList, model, Math.max(1, Math.floor(n / 200_000)), undefined, general);
   // "clearly obeyed": near-certain, and hardly any strong reflection among those it forbids
   // (a class mixing absent and present reflections can still score high on the many zeros)
-  const clearTests = () => abs.conditions
+  const clearConditions = () => abs.conditions
     .filter((c) => c.probabilityAbsent > 0.999 && c.n >= 10 && c.nStrong <= Math.max(2, 0.02 * c.n))
-    .map((c) => compileForbids(c.condition));
+    .map((c) => c.condition);
+  // A general reflection lies in no zone of any candidate, so only the zoneless (centring)
+  // conditions can forbid it; the zonal ones are tested on the special reflections only.
   const excludeClear = () => {
-    const clear = clearTests();
+    const clear = clearConditions().filter((c) => c.zone.length === 0).map(compileForbids);
     let changed = 0;
+    // use[j] is 0 for special reflections (it starts as `general` and only takes general[j] or 0)
     for (let j = 0; j < n; j++) {
       if (!use[j] && !general[j]) continue;
       let out = false;
-      for (const f of clear) if (f(table.h[j], table.k[j], table.l[j])) { out = true; break; }
+      for (let q = 0; q < clear.length && !out; q++) out = clear[q](table.h[j], table.k[j], table.l[j]);
       const u = out ? 0 : general[j];
       if (u !== use[j]) { use[j] = u; changed++; }
     }
@@ -399,10 +402,13 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   };
   const laueUse = new Uint8Array(n).fill(1);
   const refreshLaueUse = () => {
-    const clear = clearTests();
+    const conds = clearConditions();
+    const all = conds.map(compileForbids);
+    const zoneless = conds.filter((c) => c.zone.length === 0).map(compileForbids);
     for (let j = 0; j < n; j++) {
-      let out = 0;
-      for (const f of clear) if (f(table.h[j], table.k[j], table.l[j])) { out = 1; break; }
+      const clear = general[j] ? zoneless : all;
+      let out = false;
+      for (let q = 0; q < clear.length && !out; q++) out = clear[q](table.h[j], table.k[j], table.l[j]);
       laueUse[j] = out ? 0 : 1;
     }
   };
@@ -413,7 +419,8 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
   }
   refreshLaueUse();
   // --- Laue evidence
-  let agreements = rotationAgreements(table, e2, sE, union, index, expected, k, laueUse);
+  const pairCache: RotationPairCache = {};
+  let agreements = rotationAgreements(table, e2, sE, union, index, expected, k, laueUse, pairCache);
   const inClass = (key: string, r: number[]) => {
     const set = key.split(';');
     return set.includes(rotationKeyText(r)) || set.includes(rotationKeyText(inverseRotation(r)));
@@ -428,7 +435,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
         k = p.k; kSource = `${p.pairs} weak symmetry-equivalent pairs`;
         model.k = k;
         normalise();
-        if (changed) agreements = rotationAgreements(table, e2, sE, union, index, expected, k, laueUse);
+        if (changed) agreements = rotationAgreements(table, e2, sE, union, index, expected, k, laueUse, pairCache);
       }
     }
   }
