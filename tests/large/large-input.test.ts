@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from '../../src/cli';
 import { PROGRESS_MIN_BYTES } from '../../src/cli/load-data';
-import { MAX_PAGE_FILE_BYTES, fileTooLargeMessage } from '../../src/view/size-limit';
+import { MAX_PAGE_FILE_BYTES, fileTooLargeMessage } from '../../src/view';
 import { writeUnmergedCif } from './make-unmerged';
 
 /**

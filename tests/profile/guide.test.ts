@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readReflections } from '../../src/io';
 import { getSetting } from '../../src/symmetry';
 import { parseProfile } from '../../src/profile';
-import { buildGuideSections, guideText, buildGuidePanel, formatIndexSum, type GuideState } from '../../src/view/guide';
+import { buildGuideSections, guideText, buildGuidePanel, formatIndexSum, type GuideState } from '../../src/view';
 import { realdata, REPO_ROOT } from '../helpers/paths';
 
 const path = realdata('cod-1560875.cif');

@@ -4,8 +4,7 @@ import { resolve } from 'node:path';
 import { readReflections } from '../../src/io';
 import { rankSpaceGroups } from '../../src/analysis';
 import { getSetting, isSystematicallyAbsent } from '../../src/symmetry';
-import { fromRank, wilsonPoints } from '../../src/view/analysis-bridge';
-import { anyRuleForbids } from '../../src/view/rules';
+import { fromRank, wilsonPoints, anyRuleForbids } from '../../src/view';
 import { REPO_ROOT } from '../helpers/paths';
 
 describe('the evidence panels read the ranking engine faithfully', () => {

@@ -2,9 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { getSetting, isSystematicallyAbsent } from '../../src/symmetry';
 import { makeCell } from '../../src/lattice';
 import { INTENSITY_LUT, MARK, SHAPE_DIAMOND, SHAPE_DIAMOND_HOLLOW, SHAPE_DISC, paletteLightness } from '../../shaders-free-render';
-import { makeDataset } from '../../src/view/dataset';
-import { buildCloud } from '../../src/view/render3d/lattice-cloud';
-import { syntheticTable } from '../../src/view/synthetic';
+import { makeDataset, buildCloud, syntheticTable } from '../../src/view';
 import { tableFromArrays } from '../../src/core';
 
 describe('the 3D point cloud', () => {

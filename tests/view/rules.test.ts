@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { getSetting, isSystematicallyAbsent } from '../../src/symmetry';
-import { anyRuleForbids, inZone, layerForRule, ruleForbids, type Rule } from '../../src/view/rules';
+import { anyRuleForbids, inZone, layerForRule, ruleForbids, type Rule } from '../../src/view';
 
 describe('reflection-condition marks in the views', () => {
   // Reference: the symmetry layer's absence test, which works from the operations themselves
