@@ -140,6 +140,17 @@ export function reflectionLogOdds(I: number, sigma: number, S: number, model: Ab
 /** Per-condition weight and cap of the "missing forbidden class" evidence. */
 export const MISSING_CLASS_WEIGHT = 0.5;
 export const MISSING_CLASS_CAP = 10;
+/** Zone size from which a missing class is reported as such (the evidence itself counts from one reflection). */
+export const MISSING_CLASS_MIN_ZONE = 3;
+
+/**
+ * Evidence (nats) that a forbidden class with no observation among the nZone of its zone is
+ * absent: weighted (1/m)^N, capped. One or two reflections on a short screw axis still count,
+ * for little: a 4_1 axis with one axial orbit is the only trace of the absences in a filtered file.
+ */
+export function missingClassLogOdds(nZone: number, modulus: number): number {
+  return nZone > 0 ? Math.min(MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT * nZone * Math.log(modulus)) : 0;
+}
 
 /**
  * Evaluate every distinct condition once per reflection, grouped by zone so that a reflection
@@ -289,8 +300,8 @@ export function absenceEvidence(
 
   const out: ConditionEvidence[] = conditions.map((c, j) => {
     const nz = nZone[zoneOf[j]];
-    const missing = nForb[j] === 0 && nz >= 3;
-    const logOddsMissing = missing ? Math.min(MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT * nz * Math.log(c.modulus)) : 0;
+    const missing = nForb[j] === 0 && nz >= MISSING_CLASS_MIN_ZONE;
+    const logOddsMissing = nForb[j] === 0 ? missingClassLogOdds(nz, c.modulus) : 0;
     const total = sumLo[j] + logOddsMissing;
     return {
       condition: c,

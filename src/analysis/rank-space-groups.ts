@@ -1,7 +1,7 @@
 import { fail, fillEstimatedSigmas, ok, SIGMA_ESTIMATE_RULE, type CellParams, type ReflectionTable, type Result } from '../core';
 import { makeCell, stolSquaredColumn, changeOfBasisFromMatrix, formatChangeOfBasis, findBravaisCandidates, HOLOHEDRY_ORDER, basisMatrix } from '../lattice';
 import { allSettings, changeBasisOp, opKey, type SpaceGroupSetting } from '../symmetry';
-import { absenceEvidence, compileForbids, conditionKey, MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT, type AbsenceEvidence, type ConditionEvidence, type ConditionLike } from './absence-evidence';
+import { absenceEvidence, compileForbids, conditionKey, MISSING_CLASS_MIN_ZONE, missingClassLogOdds, type AbsenceEvidence, type ConditionEvidence, type ConditionLike } from './absence-evidence';
 import { candidateSettings, DEFAULT_TOLERANCE, metricLogPenalty, type MetricTolerance } from './candidates';
 import { HklIndex } from './hkl-index';
 import { intensityStatistics, THEORY } from './intensity-statistics';
@@ -593,13 +593,75 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     classesInLaue.get(key)!.add(classIdOfSig.get(sig[ci])!);
   });
   const missingConds = abs.conditions.map((c, id) => (c.logOddsMissing > 0 ? id : -1)).filter((id) => id >= 0);
+  // Points of each missing condition's zone over whole periods (-12..11 covers every modulus
+  // up to 6 an exact number of times), origin excluded: the shares of the zone a candidate and
+  // the condition leave allowed follow by counting.
+  const missingZonePoints = new Map<number, Int32Array>();
+  for (const id of missingConds) {
+    const zone = condList[id].zone;
+    const pts: number[] = [];
+    for (let h = -12; h < 12; h++)
+      for (let kk = -12; kk < 12; kk++)
+        for (let l = -12; l < 12; l++) {
+          if (h === 0 && kk === 0 && l === 0) continue;
+          if (zone.every((e) => e[0] * h + e[1] * kk + e[2] * l === 0)) pts.push(h, kk, l);
+        }
+    missingZonePoints.set(id, Int32Array.from(pts));
+  }
+  // per missing condition: the zone points each condition forbids, as bit sets (made on first use)
+  const zoneForbidden = new Map<number, (Uint32Array | undefined)[]>();
+  const forbiddenInZone = (id: number, q: number): Uint32Array => {
+    let row = zoneForbidden.get(id);
+    if (!row) { row = new Array<Uint32Array | undefined>(condList.length); zoneForbidden.set(id, row); }
+    let bits = row[q];
+    if (!bits) {
+      const pts = missingZonePoints.get(id)!;
+      const f = compileForbids(condList[q]);
+      bits = new Uint32Array(Math.ceil(pts.length / 96));
+      for (let e = 0, p = 0; e < pts.length; e += 3, p++) if (f(pts[e], pts[e + 1], pts[e + 2])) bits[p >>> 5] |= 1 << (p & 31);
+      row[q] = bits;
+    }
+    return bits;
+  };
+  const popcount = (x: number) => {
+    x -= (x >>> 1) & 0x55555555;
+    x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+    return (Math.imul((x + (x >>> 4)) & 0x0f0f0f0f, 0x01010101) >>> 24);
+  };
+  /**
+   * The share of a missing class's evidence that counts against a candidate: with C the zone
+   * positions the candidate allows and A those the condition allows, the N observed reflections
+   * all falling in A has probability (|A and C| / |C|)^N under the candidate, against (1/m)^N
+   * when it forbids nothing there. A 4_2 axis (00l: l = 2n) thus leaves half of the evidence of
+   * a missing l = 4n class unexplained (log 2 of log 4), not all of it.
+   */
+  const unexplainedShare = (id: number, ci: number): number => {
+    const nPts = missingZonePoints.get(id)!.length / 3;
+    const own = forbiddenInZone(id, id);
+    const mine = candConds[ci].map((q) => forbiddenInZone(id, q));
+    let nC = 0, nAC = 0;
+    for (let w = 0; w < own.length; w++) {
+      let cf = 0;
+      for (const m of mine) cf |= m[w];
+      // bits past the last point are zero in every set, so count them as allowed and subtract below
+      const allowedC = ~cf >>> 0;
+      nC += popcount(allowedC);
+      nAC += popcount((allowedC & ~own[w]) >>> 0);
+    }
+    const pad = own.length * 32 - nPts;
+    nC -= pad;
+    nAC -= pad;
+    if (nC <= 0 || nAC <= 0) return 1;
+    return Math.max(0, Math.min(1, Math.log(nC / nAC) / Math.log(condList[id].modulus)));
+  };
   const scores = cands.map((c, ci) => {
     const mine = new Set(candConds[ci]);
     let absLo = 0;
     for (const p of abs.patterns) if (p.ids.some((id) => mine.has(id))) absLo += p.logOdds;
     // Missing-class evidence: a class of positions absent from the file that this candidate
     // does not forbid must be missing by chance; each such class counts against it, the
-    // largest classes only (a class inside another missing class adds nothing).
+    // largest classes only (a class inside another missing class adds nothing), for the share
+    // the candidate's own conditions leave unexplained.
     const bits = candBits[ci];
     const unexplained = missingConds.filter((id) => {
       const cb = condBits[id];
@@ -609,7 +671,7 @@ function rankInner(input: ReflectionTable, options: RankOptions, progress: (f: n
     let missLo = 0;
     unexplained.forEach((a, ia) => {
       const redundant = unexplained.some((b, ib) => b !== a && isSubset(a, b) && (!isSubset(b, a) || ib < ia));
-      if (!redundant) missLo -= abs.conditions[a].logOddsMissing;
+      if (!redundant) missLo -= abs.conditions[a].logOddsMissing * unexplainedShare(a, ci);
     });
     const laue = laueClasses.get(laueKeys[ci])!;
     const centric = c.setting.centrosymmetric ? stats.centricLogOdds : 0;
@@ -947,8 +1009,8 @@ function withOrbitMissingClasses(abs: AbsenceEvidence, table: ReflectionTable, r
     for (let c = 0; c < nc; c++) { nZone[c] += zoneHit[c]; nForb[c] += forbHit[c]; }
   }
   const conditions = abs.conditions.map((c, id): ConditionEvidence => {
-    const missing = nForb[id] === 0 && nZone[id] >= 3;
-    const logOddsMissing = missing ? Math.min(MISSING_CLASS_CAP, MISSING_CLASS_WEIGHT * nZone[id] * Math.log(c.condition.modulus)) : 0;
+    const missing = nForb[id] === 0 && nZone[id] >= MISSING_CLASS_MIN_ZONE;
+    const logOddsMissing = nForb[id] === 0 ? missingClassLogOdds(nZone[id], c.condition.modulus) : 0;
     const total = c.logOddsIntensities + logOddsMissing;
     return {
       ...c,
