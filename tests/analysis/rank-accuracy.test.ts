@@ -31,9 +31,9 @@ describe('ranking accuracy on simulated data (subsample)', () => {
     const pick = [...standard.filter((_, j) => j % 12 === 7), ...nonStandard.filter((_, j) => j % 6 === 2)];
     const o = runSuite(pick, 1000, 'deposited');
     console.log(`rank accuracy, deposited-style files (CI subsample): ${o.top1}/${o.total} top-1, ${o.top3}/${o.total} top-3, ${o.top5}/${o.total} top-5, ${o.confidentWrong} confident wrong\n${o.failures.join('\n')}`);
-    // few axial reflections often leave screw axes undecided here: the aim is the truth among
-    // the first five and no confident wrong answer
-    expect(o.top1).toBeGreaterThanOrEqual(Math.ceil(0.85 * o.total));
+    // one or two axial reflections per screw axis is thin evidence (the full suite in the bench
+    // scores about 99 %); the subsample allows a miss or two, never a confident wrong answer
+    expect(o.top1).toBeGreaterThanOrEqual(Math.ceil(0.92 * o.total));
     expect(o.top5).toBeGreaterThanOrEqual(Math.ceil(0.97 * o.total));
     expect(o.confidentWrong).toBe(0);
   }, 600_000);
